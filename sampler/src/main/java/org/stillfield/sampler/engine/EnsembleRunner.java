@@ -1,0 +1,105 @@
+package org.stillfield.sampler.engine;
+
+import java.io.IOException;
+import java.util.EnumMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.Set;
+import java.util.concurrent.ForkJoinPool;
+import java.util.function.LongConsumer;
+import java.util.stream.IntStream;
+import org.stillfield.sampler.api.EnsembleSink;
+import org.stillfield.sampler.api.Field;
+import org.stillfield.sampler.api.ModeTable;
+import org.stillfield.sampler.api.SampleBatch;
+import org.stillfield.sampler.api.Vec3;
+
+/**
+ * Runs a range of samples: draws amplitudes from each sample's own stream, synthesises the
+ * fields and streams the batches to a sink. Memory is bounded by the batch size, never by the
+ * sample count.
+ */
+public final class EnsembleRunner {
+    /** Default memory for one batch of field values, bytes. */
+    public static final long DEFAULT_BATCH_BYTES = 128L << 20;
+    /** Default memory for the cached mode-function basis, bytes. */
+    public static final long DEFAULT_CACHE_BYTES = 512L << 20;
+
+    /**
+     * What to run.
+     *
+     * @param table modes and variances
+     * @param points evaluation points, metres
+     * @param fields fields to synthesise
+     * @param seed master seed
+     * @param firstSample global index of the first sample, ≥ 0
+     * @param sampleCount number of samples, ≥ 1
+     * @param threads worker threads, ≥ 1
+     */
+    public record Plan(ModeTable table, List<Vec3> points, Set<Field> fields, long seed,
+                       long firstSample, long sampleCount, int threads) {
+        /** Validates. */
+        public Plan {
+            Objects.requireNonNull(table, "table");
+            points = List.copyOf(points);
+            if (firstSample < 0) {
+                throw new IllegalArgumentException("firstSample must be >= 0: " + firstSample);
+            }
+            if (sampleCount < 1) {
+                throw new IllegalArgumentException("samples must be >= 1: " + sampleCount);
+            }
+            if (threads < 1) {
+                throw new IllegalArgumentException("threads must be >= 1: " + threads);
+            }
+        }
+    }
+
+    private EnsembleRunner() {
+    }
+
+    /**
+     * @param plan what to run
+     * @param sink receives the batches in order; finish() is called at the end
+     * @param progress told the number of samples done after each batch (may be null)
+     * @throws IOException from the sink
+     */
+    public static void run(Plan plan, EnsembleSink sink, LongConsumer progress) throws IOException {
+        ModeTable table = plan.table();
+        int m = table.size();
+        int nPoints = plan.points().size();
+        int nFields = plan.fields().size();
+        AmplitudeSampler sampler = new AmplitudeSampler(table);
+        FieldSynthesizer synth = nPoints == 0 || nFields == 0 ? null
+            : new FieldSynthesizer(table, plan.points(), plan.fields(), DEFAULT_CACHE_BYTES);
+        long perSample = 8L * (2L * m + 3L * nPoints * nFields);
+        int batch = (int) Math.max(1, Math.min(256, DEFAULT_BATCH_BYTES / Math.max(1, perSample)));
+        ForkJoinPool pool = new ForkJoinPool(plan.threads());
+        try {
+            long done = 0;
+            while (done < plan.sampleCount()) {
+                int s = (int) Math.min(batch, plan.sampleCount() - done);
+                long first = plan.firstSample() + done;
+                double[][] q = new double[s][m];
+                double[][] e = new double[s][m];
+                pool.submit(() -> IntStream.range(0, s).parallel()
+                    .forEach(i -> sampler.draw(SampleStreams.forSample(plan.seed(), first + i), q[i], e[i]))).join();
+                Map<Field, double[][]> values = new EnumMap<>(Field.class);
+                if (synth != null) {
+                    for (Field f : plan.fields()) {
+                        values.put(f, new double[s][3 * nPoints]);
+                    }
+                    synth.synthesize(q, e, values, pool, first);
+                }
+                sink.accept(new SampleBatch(first, q, e, values));
+                done += s;
+                if (progress != null) {
+                    progress.accept(done);
+                }
+            }
+            sink.finish();
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+}

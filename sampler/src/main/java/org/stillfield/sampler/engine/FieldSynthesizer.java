@@ -1,0 +1,178 @@
+package org.stillfield.sampler.engine;
+
+import java.util.EnumSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.concurrent.ForkJoinPool;
+import java.util.stream.IntStream;
+import org.stillfield.sampler.api.Field;
+import org.stillfield.sampler.api.ModeFunctions;
+import org.stillfield.sampler.api.ModeTable;
+import org.stillfield.sampler.api.Vec3;
+
+/**
+ * Sums the modes at the evaluation points: A = Σ q_l u_l, E = Σ e_l u_l, B = Σ k_l q_l h_l
+ * (PHYSICS.md §2). Geometry enters only through {@link ModeFunctions}.
+ *
+ * <p>When the basis of all points fits in the cache budget it is evaluated once; otherwise it is
+ * re-evaluated per point for every batch. Each output value is a dot product in a fixed order, so
+ * results are bit-identical for any thread count.
+ */
+public final class FieldSynthesizer {
+    private final ModeFunctions functions;
+    private final List<Vec3> points;
+    private final Set<Field> fields;
+    private final int modes;
+    private final double[] k;
+    private final boolean needU;
+    private final boolean needH;
+    private final double[][] cacheU;
+    private final double[][] cacheH;
+
+    /**
+     * @param table the modes
+     * @param points evaluation points, metres
+     * @param fields fields to synthesise (non-empty)
+     * @param cacheBytes largest basis cache, bytes
+     */
+    public FieldSynthesizer(ModeTable table, List<Vec3> points, Set<Field> fields, long cacheBytes) {
+        if (fields.isEmpty()) {
+            throw new IllegalArgumentException("fields must name at least one of A, E, B");
+        }
+        this.functions = table.cavity().modeFunctions(table.modes());
+        this.points = List.copyOf(points);
+        this.fields = EnumSet.copyOf(fields);
+        this.modes = table.size();
+        this.k = new double[modes];
+        for (int l = 0; l < modes; l++) {
+            k[l] = table.modes().get(l).k();
+        }
+        needU = fields.contains(Field.A) || fields.contains(Field.E);
+        needH = fields.contains(Field.B);
+        long perPoint = 3L * modes * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0));
+        if (perPoint * points.size() <= cacheBytes) {
+            cacheU = needU ? new double[points.size()][] : null;
+            cacheH = needH ? new double[points.size()][] : null;
+            IntStream.range(0, points.size()).parallel().forEach(p -> {
+                double[][] basis = basis(p);
+                if (needU) {
+                    cacheU[p] = basis[0];
+                }
+                if (needH) {
+                    cacheH[p] = basis[1];
+                }
+            });
+        } else {
+            cacheU = null;
+            cacheH = null;
+        }
+    }
+
+    /** @return number of points */
+    public int pointCount() {
+        return points.size();
+    }
+
+    /** @return fields synthesised */
+    public Set<Field> fields() {
+        return EnumSet.copyOf(fields);
+    }
+
+    /** Component-major basis of one point: [x block | y block | z block], h already times k. */
+    private double[][] basis(int p) {
+        Vec3 r = points.get(p);
+        double[] u = needU ? new double[3 * modes] : null;
+        double[] h = needH ? new double[3 * modes] : null;
+        functions.evaluate(r.x(), r.y(), r.z(), u, h);
+        double[] uc = needU ? transpose(u, null) : null;
+        double[] hc = needH ? transpose(h, k) : null;
+        return new double[][] {uc, hc};
+    }
+
+    private double[] transpose(double[] interleaved, double[] scale) {
+        double[] out = new double[3 * modes];
+        for (int l = 0; l < modes; l++) {
+            double s = scale == null ? 1.0 : scale[l];
+            out[l] = s * interleaved[3 * l];
+            out[modes + l] = s * interleaved[3 * l + 1];
+            out[2 * modes + l] = s * interleaved[3 * l + 2];
+        }
+        return out;
+    }
+
+    /**
+     * Fills out.get(field)[s][3p + i] for every sample of the batch.
+     *
+     * @param q q[s][l]
+     * @param e e[s][l]
+     * @param out per field, arrays [S][3P] to fill
+     * @param pool threads to use
+     * @param firstSample global index of sample 0, for error messages
+     */
+    public void synthesize(double[][] q, double[][] e, Map<Field, double[][]> out, ForkJoinPool pool, long firstSample) {
+        int nPoints = points.size();
+        int chunk = Math.max(1, Math.min(64, nPoints / (4 * pool.getParallelism()) + 1));
+        int chunks = (nPoints + chunk - 1) / chunk;
+        double[][] outA = out.get(Field.A);
+        double[][] outE = out.get(Field.E);
+        double[][] outB = out.get(Field.B);
+        pool.submit(() -> IntStream.range(0, chunks).parallel().forEach(c -> {
+            int end = Math.min(nPoints, (c + 1) * chunk);
+            for (int p = c * chunk; p < end; p++) {
+                double[] u;
+                double[] hk;
+                if (cacheU != null || cacheH != null) {
+                    u = cacheU == null ? null : cacheU[p];
+                    hk = cacheH == null ? null : cacheH[p];
+                } else {
+                    double[][] b = basis(p);
+                    u = b[0];
+                    hk = b[1];
+                }
+                for (int s = 0; s < q.length; s++) {
+                    for (int i = 0; i < 3; i++) {
+                        int off = i * modes;
+                        if (outA != null) {
+                            outA[s][3 * p + i] = check(dot(u, off, q[s]), Field.A, i, p, firstSample + s);
+                        }
+                        if (outE != null) {
+                            outE[s][3 * p + i] = check(dot(u, off, e[s]), Field.E, i, p, firstSample + s);
+                        }
+                        if (outB != null) {
+                            outB[s][3 * p + i] = check(dot(hk, off, q[s]), Field.B, i, p, firstSample + s);
+                        }
+                    }
+                }
+            }
+        })).join();
+    }
+
+    private double check(double v, Field f, int i, int p, long sample) {
+        if (!Double.isFinite(v)) {
+            Vec3 r = points.get(p);
+            throw new IllegalStateException(String.format(
+                "non-finite %s at point %d (%g, %g, %g) m in sample %d", f.column(i), p, r.x(), r.y(), r.z(), sample));
+        }
+        return v;
+    }
+
+    /** Four independent accumulators: shorter dependency chains, and a fixed summation order. */
+    private double dot(double[] basis, int off, double[] amp) {
+        double s0 = 0;
+        double s1 = 0;
+        double s2 = 0;
+        double s3 = 0;
+        int l = 0;
+        for (; l + 3 < modes; l += 4) {
+            s0 += basis[off + l] * amp[l];
+            s1 += basis[off + l + 1] * amp[l + 1];
+            s2 += basis[off + l + 2] * amp[l + 2];
+            s3 += basis[off + l + 3] * amp[l + 3];
+        }
+        for (; l < modes; l++) {
+            s0 += basis[off + l] * amp[l];
+        }
+        return (s0 + s1) + (s2 + s3);
+    }
+}

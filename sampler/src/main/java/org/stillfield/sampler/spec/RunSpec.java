@@ -1,0 +1,91 @@
+package org.stillfield.sampler.spec;
+
+import java.nio.file.Path;
+import java.util.EnumSet;
+import java.util.List;
+import java.util.Set;
+import org.stillfield.sampler.api.Cavity;
+import org.stillfield.sampler.api.Field;
+import org.stillfield.sampler.api.PointSet;
+import org.stillfield.sampler.api.ThermalState;
+import org.stillfield.sampler.api.Window;
+
+/**
+ * A validated run specification. Built only by {@link SpecReader}; the original text is kept so
+ * every output file can carry it.
+ *
+ * @param name run name
+ * @param cavity the cavity (geometry and filling)
+ * @param state vacuum or thermal state
+ * @param fields fields to synthesise
+ * @param window spectral window
+ * @param samples number of samples, ≥ 1
+ * @param seed master seed
+ * @param pointSets evaluation points
+ * @param outputFolder where the dataset goes (resolved against the spec's folder)
+ * @param precision float64 or float32 field values
+ * @param pairs point pairs the analysis estimates C_ij for
+ * @param falseAlarm nominal false-alarm rate of the validation verdict
+ * @param maxModes largest mode count allowed
+ * @param threads worker threads (≥ 1)
+ * @param sourceText the spec file as written
+ */
+public record RunSpec(String name, Cavity cavity, ThermalState state, Set<Field> fields, Window window,
+                      long samples, long seed, List<PointSet> pointSets, Path outputFolder, Precision precision,
+                      List<PointPair> pairs, double falseAlarm, long maxModes, int threads, String sourceText) {
+    /** Storage precision of field values. */
+    public enum Precision {
+        /** IEEE double. */
+        FLOAT64,
+        /** IEEE single: half the size, ~7 significant digits. */
+        FLOAT32
+    }
+
+    /**
+     * Two evaluation points, by global index, whose correlation tensor the analysis estimates.
+     *
+     * @param first global index of r
+     * @param second global index of r′
+     */
+    public record PointPair(int first, int second) {
+    }
+
+    /** Copies collections. */
+    public RunSpec {
+        fields = EnumSet.copyOf(fields);
+        pointSets = List.copyOf(pointSets);
+        pairs = List.copyOf(pairs);
+    }
+
+    @Override
+    public Set<Field> fields() {
+        return EnumSet.copyOf(fields);
+    }
+
+    /** @return all evaluation points in global order (sets in spec order, each set in its order) */
+    public List<org.stillfield.sampler.api.Vec3> allPoints() {
+        List<org.stillfield.sampler.api.Vec3> out = new java.util.ArrayList<>();
+        for (PointSet s : pointSets) {
+            out.addAll(s.points());
+        }
+        return out;
+    }
+
+    /** @return the same spec with another sample count */
+    public RunSpec withSamples(long n) {
+        return new RunSpec(name, cavity, state, fields, window, n, seed, pointSets, outputFolder, precision, pairs,
+            falseAlarm, maxModes, threads, sourceText);
+    }
+
+    /** @return the same spec with another thread count */
+    public RunSpec withThreads(int n) {
+        return new RunSpec(name, cavity, state, fields, window, samples, seed, pointSets, outputFolder, precision, pairs,
+            falseAlarm, maxModes, n, sourceText);
+    }
+
+    /** @return the same spec writing to another folder */
+    public RunSpec withOutputFolder(Path folder) {
+        return new RunSpec(name, cavity, state, fields, window, samples, seed, pointSets, folder, precision, pairs,
+            falseAlarm, maxModes, threads, sourceText);
+    }
+}
