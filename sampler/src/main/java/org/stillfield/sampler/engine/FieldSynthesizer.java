@@ -29,6 +29,7 @@ public final class FieldSynthesizer {
     private final boolean needH;
     private final double[][] cacheU;
     private final double[][] cacheH;
+    private final boolean[] inside;
 
     /**
      * @param table the modes
@@ -47,6 +48,10 @@ public final class FieldSynthesizer {
         this.k = new double[modes];
         for (int l = 0; l < modes; l++) {
             k[l] = table.modes().get(l).k();
+        }
+        this.inside = new boolean[this.points.size()];
+        for (int p = 0; p < inside.length; p++) {
+            inside[p] = table.cavity().contains(this.points.get(p));
         }
         needU = fields.contains(Field.A) || fields.contains(Field.E);
         needH = fields.contains(Field.B);
@@ -120,6 +125,10 @@ public final class FieldSynthesizer {
         pool.submit(() -> IntStream.range(0, chunks).parallel().forEach(c -> {
             int end = Math.min(nPoints, (c + 1) * chunk);
             for (int p = c * chunk; p < end; p++) {
+                if (!inside[p]) {
+                    fillOutside(p, q.length, outA, outE, outB);
+                    continue;
+                }
                 double[] u;
                 double[] hk;
                 if (cacheU != null || cacheH != null) {
@@ -146,6 +155,24 @@ public final class FieldSynthesizer {
                 }
             }
         })).join();
+    }
+
+    /** Points outside the cavity (grids over a bounding box) carry NaN: no field is defined there. */
+    private static void fillOutside(int p, int samples, double[][]... outs) {
+        for (double[][] out : outs) {
+            if (out != null) {
+                for (int s = 0; s < samples; s++) {
+                    out[s][3 * p] = Double.NaN;
+                    out[s][3 * p + 1] = Double.NaN;
+                    out[s][3 * p + 2] = Double.NaN;
+                }
+            }
+        }
+    }
+
+    /** @return true if point p lies inside the cavity */
+    public boolean inside(int p) {
+        return inside[p];
     }
 
     private double check(double v, Field f, int i, int p, long sample) {

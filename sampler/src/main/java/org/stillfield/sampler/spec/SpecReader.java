@@ -222,8 +222,8 @@ public final class SpecReader {
         for (SpecNode l : node.children("lines")) {
             l.rejectUnknown(List.of("name", "from", "to", "n"));
             String n = setName(l, names);
-            Vec3 a = inside(l, "from", cavity);
-            Vec3 b = inside(l, "to", cavity);
+            Vec3 a = withinBounds(l, "from", cavity);
+            Vec3 b = withinBounds(l, "to", cavity);
             int count = (int) l.integer("n", 21, 2, MAX_POINTS);
             sets.add(PointSet.line(n, a, b, count));
             total += count;
@@ -232,8 +232,8 @@ public final class SpecReader {
             g.rejectUnknown(List.of("name", "from", "to", "n"));
             String n = setName(g, names);
             Vec3[] bounds = cavity.bounds();
-            Vec3 a = g.has("from") ? inside(g, "from", cavity) : bounds[0];
-            Vec3 b = g.has("to") ? inside(g, "to", cavity) : bounds[1];
+            Vec3 a = g.has("from") ? withinBounds(g, "from", cavity) : bounds[0];
+            Vec3 b = g.has("to") ? withinBounds(g, "to", cavity) : bounds[1];
             List<Object> dims = g.list("n");
             if (dims.size() != 3) {
                 throw new SpecException(g.at("n"), "must be three whole numbers [nx, ny, nz], each >= 1");
@@ -279,6 +279,20 @@ public final class SpecReader {
             Vec3[] b = cavity.bounds();
             throw new SpecException(n.at(key), String.format("point (%g, %g, %g) m lies outside the cavity (bounds %s to %s)",
                 r.x(), r.y(), r.z(), fmt(b[0]), fmt(b[1])));
+        }
+        return r;
+    }
+
+    /** Lines and grids may cross the outside of a curved cavity; their points there are masked. */
+    private static Vec3 withinBounds(SpecNode n, String key, Cavity cavity) throws SpecException {
+        double[] t = n.triple(key);
+        Vec3 r = new Vec3(t[0], t[1], t[2]);
+        Vec3[] b = cavity.bounds();
+        for (int i = 0; i < 3; i++) {
+            if (r.get(i) < b[0].get(i) || r.get(i) > b[1].get(i)) {
+                throw new SpecException(n.at(key), String.format("point (%g, %g, %g) m lies outside the cavity's bounds %s to %s",
+                    r.x(), r.y(), r.z(), fmt(b[0]), fmt(b[1])));
+            }
         }
         return r;
     }
