@@ -1,0 +1,98 @@
+package org.stillfield.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import org.stillfield.sampler.api.Version;
+import org.stillfield.sampler.spec.SpecException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/**
+ * The {@code stillfield} command. Exit codes: 0 success, 1 the validation verdict failed,
+ * 2 bad input (spec, options, output folder), 3 the run failed for another reason (I/O, a
+ * non-finite value).
+ */
+@Command(name = "stillfield",
+    mixinStandardHelpOptions = true,
+    versionProvider = Main.VersionInfo.class,
+    description = {
+        "Samples the quantum vacuum (or thermal) electromagnetic field of a perfectly conducting cavity,",
+        "writes the ensemble as Parquet, checks its correlations against the analytic mode sum and plots a report."},
+    subcommands = {RunCommand.class, ModesCommand.class, SampleCommand.class, AnalyzeCommand.class,
+        PlotCommand.class, VerifyCommand.class, CommandLine.HelpCommand.class})
+public final class Main implements Runnable {
+    /** Success. */
+    public static final int OK = 0;
+    /** The ensemble failed its validation verdict. */
+    public static final int VERDICT_FAILED = 1;
+    /** Bad input: spec, options or output folder. */
+    public static final int BAD_INPUT = 2;
+    /** Any other failure. */
+    public static final int FAILED = 3;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec commandSpec;
+
+    /** @param args command line */
+    public static void main(String[] args) {
+        System.exit(execute(args));
+    }
+
+    /**
+     * Runs the command line and returns its exit code (used by tests too).
+     *
+     * @param args command line
+     * @return exit code
+     */
+    public static int execute(String... args) {
+        System.setProperty("java.awt.headless", "true");
+        CommandLine cl = new CommandLine(new Main());
+        cl.setParameterExceptionHandler((ex, a) -> {
+            PrintWriter err = ex.getCommandLine().getErr();
+            err.println("stillfield: " + ex.getMessage());
+            err.println("  see: " + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help");
+            return BAD_INPUT;
+        });
+        cl.setExecutionExceptionHandler((ex, c, parsed) -> {
+            PrintWriter err = c.getErr();
+            Throwable t = ex;
+            while ((t instanceof UncheckedIOException || t instanceof java.util.concurrent.CompletionException
+                || t instanceof java.util.concurrent.ExecutionException) && t.getCause() != null) {
+                t = t.getCause();
+            }
+            if (t instanceof SpecException) {
+                err.println("stillfield: spec error: " + t.getMessage());
+                return BAD_INPUT;
+            }
+            if (t instanceof IllegalArgumentException) {
+                err.println("stillfield: " + t.getMessage());
+                return BAD_INPUT;
+            }
+            if (t instanceof IOException) {
+                err.println("stillfield: i/o error: " + t.getMessage());
+                return FAILED;
+            }
+            err.println("stillfield: failed: " + t);
+            if (System.getenv("STILLFIELD_DEBUG") != null) {
+                t.printStackTrace(err);
+            }
+            return FAILED;
+        });
+        return cl.execute(args);
+    }
+
+    @Override
+    public void run() {
+        commandSpec.commandLine().usage(commandSpec.commandLine().getOut());
+    }
+
+    /** Version line for --version. */
+    static final class VersionInfo implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            return new String[] {"stillfield " + Version.VERSION + " (dataset format " + Version.DATASET_FORMAT + ", "
+                + org.stillfield.sampler.api.PhysicalConstants.SET + " constants, Java " + System.getProperty("java.version") + ")"};
+        }
+    }
+}

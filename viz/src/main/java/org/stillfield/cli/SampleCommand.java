@@ -1,0 +1,33 @@
+package org.stillfield.cli;
+
+import java.io.PrintWriter;
+import java.util.concurrent.Callable;
+import org.stillfield.sampler.spec.RunSpec;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+
+/** Draws the ensemble and writes the Parquet dataset. */
+@Command(name = "sample", mixinStandardHelpOptions = true,
+    description = "Draw the ensemble and write the Parquet dataset (modes, points, amplitudes, fields, manifest).")
+final class SampleCommand implements Callable<Integer> {
+    @Mixin
+    SpecOptions specOptions;
+
+    @Option(names = "--overwrite", description = "Replace an existing output folder (only once the new dataset is complete).")
+    boolean overwrite;
+
+    @Spec
+    picocli.CommandLine.Model.CommandSpec command;
+
+    @Override
+    public Integer call() throws Exception {
+        RunSpec spec = specOptions.load();
+        PrintWriter out = command.commandLine().getOut();
+        Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, out);
+        Pipeline.printSample(s, out);
+        out.flush();
+        return Main.OK;
+    }
+}
