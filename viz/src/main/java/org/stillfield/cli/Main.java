@@ -46,8 +46,26 @@ public final class Main implements Runnable {
      * @return exit code
      */
     public static int execute(String... args) {
+        return execute(null, null, args);
+    }
+
+    /**
+     * Runs the command line with the given output streams.
+     *
+     * @param out standard output, or null for System.out
+     * @param err standard error, or null for System.err
+     * @param args command line
+     * @return exit code
+     */
+    public static int execute(PrintWriter out, PrintWriter err, String... args) {
         System.setProperty("java.awt.headless", "true");
         CommandLine cl = new CommandLine(new Main());
+        if (out != null) {
+            cl.setOut(out);
+        }
+        if (err != null) {
+            cl.setErr(err);
+        }
         cl.setParameterExceptionHandler((ex, a) -> {
             PrintWriter err = ex.getCommandLine().getErr();
             err.println("stillfield: " + ex.getMessage());

@@ -1,0 +1,147 @@
+#!/usr/bin/env python3
+"""Writes the malformed-spec corpus: each file is the demo spec with one thing broken and a first
+line '# expect: SETTING' naming the setting the error message must name. Re-run after changing the
+demo spec: python3 make_corpus.py ../../../../../runs/demo.yaml"""
+import re, sys, os, glob
+
+base = open(sys.argv[1] if len(sys.argv) > 1 else "../../../../../runs/demo.yaml").read()
+
+def sub(old, new):
+    def f(t):
+        assert re.search(old, t, flags=re.M), old
+        return re.sub(old, new, t, count=1, flags=re.M)
+    return f
+
+def drop(pattern):
+    return sub(pattern + r".*\n", "")
+
+cases = []
+def case(name, expect, fn):
+    cases.append((name, expect, fn))
+
+# cavity sizes: zero, negative, NaN, infinite, text, missing
+for key in ["a_m", "b_m", "d_m"]:
+    for label, val in [("zero", "0"), ("negative", "-0.03"), ("nan", ".nan"), ("inf", ".inf"),
+                       ("neginf", "-.inf"), ("text", "thirty"), ("list", "[0.03]"), ("null", "~")]:
+        case(f"{key}-{label}", f"cavity.{key}" if label != "null" else f"cavity.{key}", sub(rf"^  {key}: [^ #\n]+", f"  {key}: {val}"))
+    case(f"{key}-missing", f"cavity.{key}", drop(rf"^  {key}:"))
+case("eps-below-one", "cavity.eps_r", sub(r"^  eps_r: [^ #\n]+", "  eps_r: 0.5"))
+case("eps-nan", "cavity.eps_r", sub(r"^  eps_r: [^ #\n]+", "  eps_r: .nan"))
+case("eps-text", "cavity.eps_r", sub(r"^  eps_r: [^ #\n]+", "  eps_r: glass"))
+case("mu-zero", "cavity.mu_r", sub(r"^  eps_r:", "  mu_r: 0\n  eps_r:"))
+case("shape-unknown", "cavity.shape", sub(r"^  shape: box", "  shape: torus"))
+case("shape-typo", "cavity.shape", sub(r"^  shape: box", "  shape: bxo"))
+case("shape-missing", "cavity.shape", drop(r"^  shape:"))
+case("cavity-unknown-key", "cavity.radius", sub(r"^  a_m:", "  radius: 0.1\n  a_m:"))
+case("cavity-typo-key", "cavity.a_mm", sub(r"^  a_m:", "  a_mm:"))
+case("cavity-not-mapping", "cavity", sub(r"^cavity:\n(  .*\n)+", "cavity: box\n"))
+case("cavity-missing", "cavity.shape", sub(r"^cavity:\n(  .*\n)+", ""))
+# state
+case("state-kind-unknown", "state.kind", sub(r"^  kind: vacuum", "  kind: squeezed"))
+case("state-thermal-no-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: thermal"))
+case("state-thermal-negative-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: thermal\n  temperature_K: -0.02"))
+case("state-thermal-zero-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: thermal\n  temperature_K: 0"))
+case("state-thermal-nan-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: thermal\n  temperature_K: .nan"))
+case("state-thermal-text-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: thermal\n  temperature_K: cold"))
+case("state-vacuum-with-T", "state.temperature_K", sub(r"^  kind: vacuum.*", "  kind: vacuum\n  temperature_K: 4.2"))
+case("state-unknown-key", "state.temperature", sub(r"^  kind: vacuum.*", "  kind: thermal\n  temperature: 4.2"))
+# fields
+case("fields-unknown", "fields", sub(r"^fields: .*", "fields: [E, H]"))
+case("fields-empty", "fields", sub(r"^fields: .*", "fields: []"))
+case("fields-not-list", "fields", sub(r"^fields: .*", "fields: E"))
+case("fields-lowercase-typo", "fields", sub(r"^fields: .*", "fields: [e, bb]"))
+# window
+case("window-kind-unknown", "window.kind", sub(r"^  kind: gauss.*", "  kind: lorentz"))
+case("window-kind-typo", "window.kind", sub(r"^  kind: gauss.*", "  kind: guass"))
+case("window-no-cutoff", "window.cutoff_GHz", drop(r"^  cutoff_GHz:"))
+case("window-two-cutoffs", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: 20\n  cutoff_Hz: 2.0e10"))
+case("window-cutoff-zero", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: 0"))
+case("window-cutoff-negative", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: -20"))
+case("window-cutoff-nan", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: .nan"))
+case("window-cutoff-inf", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: .inf"))
+case("window-cutoff-text", "window.cutoff_GHz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: twenty"))
+case("window-cutoff-hz-negative", "window.cutoff_Hz", sub(r"^  cutoff_GHz: 20.*", "  cutoff_Hz: -1"))
+case("window-omega-zero", "window.omega_c_rad_s", sub(r"^  cutoff_GHz: 20.*", "  omega_c_rad_s: 0"))
+case("window-cutoff-below-lowest", "window.cutoff", sub(r"^  kind: gauss.*", "  kind: hard").__call__ if False else (lambda t: sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: 3")(sub(r"^  kind: gauss.*", "  kind: hard")(t))))
+case("window-too-many-modes", "limits.max_modes", sub(r"^  cutoff_GHz: 20.*", "  cutoff_GHz: 2000"))
+case("window-tolerance-zero", "window.tolerance", sub(r"^  tolerance: .*", "  tolerance: 0"))
+case("window-tolerance-big", "window.tolerance", sub(r"^  tolerance: .*", "  tolerance: 0.9"))
+case("window-tolerance-text", "window.tolerance", sub(r"^  tolerance: .*", "  tolerance: small"))
+case("window-unknown-key", "window.cutoff_ghz", sub(r"^  cutoff_GHz:", "  cutoff_ghz:"))
+# samples, seed, threads
+for label, val, exp in [("zero", "0", "samples"), ("negative", "-5", "samples"), ("fraction", "10.5", "samples"),
+                        ("text", "many", "samples"), ("huge", "100000000000", "samples"), ("nan", ".nan", "samples")]:
+    case(f"samples-{label}", exp, sub(r"^samples: .*", f"samples: {val}"))
+case("samples-missing", "samples", drop(r"^samples:"))
+case("seed-text", "seed", sub(r"^seed: .*", "seed: lucky"))
+case("seed-fraction", "seed", sub(r"^seed: .*", "seed: 1.5"))
+case("seed-too-big", "seed", sub(r"^seed: .*", "seed: 99999999999999999999999"))
+case("threads-negative", "threads", sub(r"^threads: .*", "threads: -1"))
+case("threads-huge", "threads", sub(r"^threads: .*", "threads: 100000"))
+case("threads-text", "threads", sub(r"^threads: .*", "threads: all"))
+# evaluation points
+case("point-outside", "evaluate.points[0].at", sub(r"at: \[0.015, 0.010, 0.008\]", "at: [0.015, 0.010, 0.048]"))
+case("point-negative", "evaluate.points[0].at", sub(r"at: \[0.015, 0.010, 0.008\]", "at: [-0.001, 0.010, 0.008]"))
+case("point-two-coords", "evaluate.points[0].at", sub(r"at: \[0.015, 0.010, 0.008\]", "at: [0.015, 0.010]"))
+case("point-nan", "evaluate.points[0].at[1]", sub(r"at: \[0.015, 0.010, 0.008\]", "at: [0.015, .nan, 0.008]"))
+case("point-text", "evaluate.points[0].at[2]", sub(r"at: \[0.015, 0.010, 0.008\]", "at: [0.015, 0.010, top]"))
+case("point-missing-at", "evaluate.points[0].at", sub(r"^      at: \[0.015, 0.010, 0.008\]\n", ""))
+case("point-no-name", "evaluate.points[0].name", sub(r"- name: antenna .*\n      at:", "- at:"))
+case("point-bad-name", "evaluate.points[0].name", sub(r"- name: antenna", "- name: 'pin antenna'"))
+case("point-unknown-key", "evaluate.points[0].position", sub(r"      at: \[0.015, 0.010, 0.008\]", "      position: [0.015, 0.010, 0.008]"))
+case("duplicate-set-name", "evaluate.lines[0].name", sub(r"- name: axis ", "- name: antenna "))
+case("line-n-one", "evaluate.lines[0].n", sub(r"^      n: 41", "      n: 1"))
+case("line-n-zero", "evaluate.lines[0].n", sub(r"^      n: 41", "      n: 0"))
+case("line-n-text", "evaluate.lines[0].n", sub(r"^      n: 41", "      n: lots"))
+case("line-n-fraction", "evaluate.lines[0].n", sub(r"^      n: 41", "      n: 4.5"))
+case("line-n-huge", "evaluate.lines[0].n", sub(r"^      n: 41", "      n: 100000000"))
+case("line-from-outside", "evaluate.lines[0].from", sub(r"from: \[0.015, 0.010, 0.0\]", "from: [0.015, 0.010, -0.01]"))
+case("line-to-outside", "evaluate.lines[0].to", sub(r"to:   \[0.015, 0.010, 0.040\]", "to:   [0.015, 0.030, 0.040]"))
+case("line-missing-to", "evaluate.lines[0].to", sub(r"      to:   \[0.015, 0.010, 0.040\]\n", ""))
+case("grid-two-dims", "evaluate.grids[0].n", sub(r"n: \[24, 1, 32\]", "n: [24, 32]"))
+case("grid-zero-dim", "evaluate.grids[0].n[1]", sub(r"n: \[24, 1, 32\]", "n: [24, 0, 32]"))
+case("grid-negative-dim", "evaluate.grids[0].n[0]", sub(r"n: \[24, 1, 32\]", "n: [-24, 1, 32]"))
+case("grid-huge", "evaluate.grids[0].n", sub(r"n: \[24, 1, 32\]", "n: [2000, 2000, 2000]"))
+case("grid-text-dim", "evaluate.grids[0].n[2]", sub(r"n: \[24, 1, 32\]", "n: [24, 1, many]"))
+case("grid-to-outside", "evaluate.grids[0].to", sub(r"to:   \[0.030, 0.020, 0.040\]", "to:   [0.030, 0.020, 0.050]"))
+case("evaluate-unknown-key", "evaluate.planes", sub(r"^  grids:", "  planes: []\n  grids:"))
+case("evaluate-lines-not-list", "evaluate.lines", sub(r"^  lines:\n(    .*\n)+", "  lines: axis\n"))
+# output
+case("precision-unknown", "output.precision", sub(r"^  precision: float64.*", "  precision: float16"))
+case("precision-typo", "output.precision", sub(r"^  precision: float64.*", "  precision: flaot32"))
+case("output-unknown-key", "output.format", sub(r"^  precision: float64.*", "  precision: float64\n  format: csv"))
+case("output-folder-number", "output.folder", sub(r"^  folder: .*", "  folder: 42"))
+# analysis
+case("pairs-unknown-set", "analysis.pairs[0]", sub(r'- \["axis\[20\]", "axis"\]', '- ["axes[20]", "axis"]'))
+case("pairs-index-out-of-range", "analysis.pairs[0]", sub(r'- \["axis\[20\]", "axis"\]', '- ["axis[41]", "axis"]'))
+case("pairs-first-is-set", "analysis.pairs[0]", sub(r'- \["axis\[20\]", "axis"\]', '- ["axis", "axis"]'))
+case("pairs-one-element", "analysis.pairs[0]", sub(r'- \["axis\[20\]", "axis"\]', '- ["axis[20]"]'))
+case("pairs-not-list", "analysis.pairs", sub(r'^  pairs:\n(    .*\n)+', '  pairs: axis\n'))
+case("false-alarm-zero", "analysis.false_alarm", sub(r"^  false_alarm: .*", "  false_alarm: 0"))
+case("false-alarm-one", "analysis.false_alarm", sub(r"^  false_alarm: .*", "  false_alarm: 1"))
+case("false-alarm-text", "analysis.false_alarm", sub(r"^  false_alarm: .*", "  false_alarm: low"))
+case("analysis-unknown-key", "analysis.alpha", sub(r"^  false_alarm: .*", "  alpha: 0.01"))
+# limits
+case("max-modes-zero", "limits.max_modes", sub(r"^  max_modes: .*", "  max_modes: 0"))
+case("max-modes-text", "limits.max_modes", sub(r"^  max_modes: .*", "  max_modes: lots"))
+case("limits-unknown-key", "limits.max_mode", sub(r"^  max_modes:", "  max_mode:"))
+# top level and syntax
+case("unknown-top-key", "sample", sub(r"^samples:", "sample:"))
+case("unknown-top-key-far", "colour", sub(r"^threads:", "colour: blue\nthreads:"))
+case("name-with-space", "name", sub(r"^name: .*", "name: kl7 demo"))
+case("name-number", "name", sub(r"^name: .*", "name: 7"))
+case("yaml-bad-indent", "", sub(r"^  a_m: 0.030 ", "   a_m: 0.030\n b_m_wrong: 1 "))
+case("yaml-unclosed-list", "", sub(r"^fields: \[E, B\]", "fields: [E, B"))
+case("yaml-tab", "", sub(r"^  a_m:", "\ta_m:"))
+case("yaml-duplicate-key", "", sub(r"^samples: 1000", "samples: 1000\nsamples: 2000"))
+case("yaml-not-mapping", "", lambda t: "- just\n- a list\n")
+case("yaml-empty", "", lambda t: "# nothing here\n")
+case("yaml-scalar", "", lambda t: "hello\n")
+
+for f in glob.glob("[0-9][0-9][0-9]-*.yaml"):
+    os.remove(f)
+for i, (name, expect, fn) in enumerate(cases):
+    text = fn(base)
+    with open(f"{i:03d}-{name}.yaml", "w") as out:
+        out.write(f"# expect: {expect}\n" + text)
+print(len(cases), "cases")
