@@ -76,7 +76,7 @@ final class Pipeline {
             spec.samples(), spec.threads());
         long t0 = System.nanoTime();
         try (DatasetWriter writer = DatasetWriter.create(spec, table, overwrite); Progress progress = Progress.of(spec.samples())) {
-            EnsembleRunner.run(plan, writer, progress);
+            EnsembleRunner.run(plan, spec.pointSets(), writer, progress);
         }
         double seconds = (System.nanoTime() - t0) * 1e-9;
         return new SampleSummary(spec.outputFolder(), spec.samples(), table.size(), spec.allPoints().size(), seconds);

@@ -58,4 +58,19 @@ public interface Cavity {
      * @return a thread-safe evaluator
      */
     ModeFunctions modeFunctions(List<Mode> modes);
+
+    /**
+     * A fast exact mode sum on the tensor-product grid xs × ys × zs, for geometries whose modes
+     * separate in Cartesian coordinates; null (the default) when the cavity has none, and the
+     * generic per-point evaluation is used.
+     *
+     * @param modes the modes, in amplitude order
+     * @param xs grid x coordinates, metres
+     * @param ys grid y coordinates, metres
+     * @param zs grid z coordinates, metres
+     * @return the fast sum, or null
+     */
+    default TensorGridSum tensorGridSum(List<Mode> modes, double[] xs, double[] ys, double[] zs) {
+        return null;
+    }
 }

@@ -12,6 +12,7 @@ import java.util.stream.IntStream;
 import org.stillfield.sampler.api.EnsembleSink;
 import org.stillfield.sampler.api.Field;
 import org.stillfield.sampler.api.ModeTable;
+import org.stillfield.sampler.api.PointSet;
 import org.stillfield.sampler.api.SampleBatch;
 import org.stillfield.sampler.api.Vec3;
 
@@ -58,6 +59,22 @@ public final class EnsembleRunner {
     private EnsembleRunner() {
     }
 
+    private static List<PointSet> checked(List<PointSet> sets, List<Vec3> points) {
+        int p = 0;
+        for (PointSet s : sets) {
+            for (Vec3 r : s.points()) {
+                if (p >= points.size() || !r.equals(points.get(p))) {
+                    throw new IllegalArgumentException("point sets do not match the plan's points at point " + p);
+                }
+                p++;
+            }
+        }
+        if (p != points.size()) {
+            throw new IllegalArgumentException("point sets hold " + p + " points, the plan " + points.size());
+        }
+        return sets;
+    }
+
     /**
      * @param plan what to run
      * @param sink receives the batches in order; finish() is called at the end
@@ -65,13 +82,28 @@ public final class EnsembleRunner {
      * @throws IOException from the sink
      */
     public static void run(Plan plan, EnsembleSink sink, LongConsumer progress) throws IOException {
+        run(plan, List.of(), sink, progress);
+    }
+
+    /**
+     * Like {@link #run(Plan, EnsembleSink, LongConsumer)}, with the plan's points described by their
+     * sets so that grids can use the cavity's exact fast sum.
+     *
+     * @param plan what to run
+     * @param sets the point sets whose points, in order, are the plan's points (empty: generic path)
+     * @param sink receives the batches in order
+     * @param progress told the number of samples done after each batch (may be null)
+     * @throws IOException from the sink
+     */
+    public static void run(Plan plan, List<PointSet> sets, EnsembleSink sink, LongConsumer progress) throws IOException {
         ModeTable table = plan.table();
         int m = table.size();
         int nPoints = plan.points().size();
         int nFields = plan.fields().size();
         AmplitudeSampler sampler = new AmplitudeSampler(table);
         FieldSynthesizer synth = nPoints == 0 || nFields == 0 ? null
-            : new FieldSynthesizer(table, plan.points(), plan.fields(), DEFAULT_CACHE_BYTES);
+            : sets.isEmpty() ? new FieldSynthesizer(table, plan.points(), plan.fields(), DEFAULT_CACHE_BYTES)
+            : FieldSynthesizer.forSets(table, checked(sets, plan.points()), plan.fields(), DEFAULT_CACHE_BYTES);
         long perSample = 8L * (2L * m + 3L * nPoints * nFields);
         int batch = (int) Math.max(1, Math.min(256, DEFAULT_BATCH_BYTES / Math.max(1, perSample)));
         ForkJoinPool pool = new ForkJoinPool(plan.threads());

@@ -1,5 +1,6 @@
 package org.stillfield.sampler.engine;
 
+import java.util.ArrayList;
 import java.util.EnumSet;
 import java.util.List;
 import java.util.Map;
@@ -9,6 +10,8 @@ import java.util.stream.IntStream;
 import org.stillfield.sampler.api.Field;
 import org.stillfield.sampler.api.ModeFunctions;
 import org.stillfield.sampler.api.ModeTable;
+import org.stillfield.sampler.api.PointSet;
+import org.stillfield.sampler.api.TensorGridSum;
 import org.stillfield.sampler.api.Vec3;
 
 /**
@@ -30,6 +33,12 @@ public final class FieldSynthesizer {
     private final double[][] cacheU;
     private final double[][] cacheH;
     private final boolean[] inside;
+    private final boolean[] fast;
+    private final List<GridSegment> segments = new ArrayList<>();
+
+    /** A grid handled by the cavity's exact tensor-product sum. */
+    private record GridSegment(int offset, int size, TensorGridSum sum) {
+    }
 
     /**
      * @param table the modes
@@ -38,6 +47,33 @@ public final class FieldSynthesizer {
      * @param cacheBytes largest basis cache, bytes
      */
     public FieldSynthesizer(ModeTable table, List<Vec3> points, Set<Field> fields, long cacheBytes) {
+        this(table, points, List.of(), fields, cacheBytes);
+    }
+
+    /**
+     * Like the constructor, with the points given as sets: grid
+     * sets of a cavity that offers a {@link TensorGridSum} (and lie wholly inside it) take that
+     * exact fast path.
+     *
+     * @param table the modes
+     * @param sets evaluation point sets, in global point order
+     * @param fields fields to synthesise (non-empty)
+     * @param cacheBytes largest basis cache for the other points, bytes
+     * @return the synthesiser
+     */
+    public static FieldSynthesizer forSets(ModeTable table, List<PointSet> sets, Set<Field> fields, long cacheBytes) {
+        return new FieldSynthesizer(table, flatten(sets), sets, fields, cacheBytes);
+    }
+
+    private static List<Vec3> flatten(List<PointSet> sets) {
+        List<Vec3> out = new ArrayList<>();
+        for (PointSet s : sets) {
+            out.addAll(s.points());
+        }
+        return out;
+    }
+
+    private FieldSynthesizer(ModeTable table, List<Vec3> points, List<PointSet> sets, Set<Field> fields, long cacheBytes) {
         if (fields.isEmpty()) {
             throw new IllegalArgumentException("fields must name at least one of A, E, B");
         }
@@ -53,13 +89,42 @@ public final class FieldSynthesizer {
         for (int p = 0; p < inside.length; p++) {
             inside[p] = table.cavity().contains(this.points.get(p));
         }
+        this.fast = new boolean[this.points.size()];
+        int offset = 0;
+        for (PointSet set : sets) {
+            if (set.kind() == PointSet.Kind.GRID && allInside(offset, set.size())) {
+                int[] n = set.dims();
+                double[] xs = new double[n[0]];
+                double[] ys = new double[n[1]];
+                double[] zs = new double[n[2]];
+                List<Vec3> pts = set.points();
+                for (int i = 0; i < n[0]; i++) {
+                    xs[i] = pts.get(i).x();
+                }
+                for (int j = 0; j < n[1]; j++) {
+                    ys[j] = pts.get(j * n[0]).y();
+                }
+                for (int k = 0; k < n[2]; k++) {
+                    zs[k] = pts.get(k * n[0] * n[1]).z();
+                }
+                TensorGridSum sum = table.cavity().tensorGridSum(table.modes(), xs, ys, zs);
+                if (sum != null) {
+                    segments.add(new GridSegment(offset, set.size(), sum));
+                    java.util.Arrays.fill(fast, offset, offset + set.size(), true);
+                }
+            }
+            offset += set.size();
+        }
+        if (!sets.isEmpty() && offset != this.points.size()) {
+            throw new IllegalArgumentException("point sets do not add up to the point list");
+        }
         needU = fields.contains(Field.A) || fields.contains(Field.E);
         needH = fields.contains(Field.B);
         long perPoint = 3L * modes * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0));
         if (perPoint * points.size() <= cacheBytes) {
             cacheU = needU ? new double[points.size()][] : null;
             cacheH = needH ? new double[points.size()][] : null;
-            IntStream.range(0, points.size()).parallel().forEach(p -> {
+            IntStream.range(0, points.size()).parallel().filter(p -> !fast[p]).forEach(p -> {
                 double[][] basis = basis(p);
                 if (needU) {
                     cacheU[p] = basis[0];
@@ -72,6 +137,15 @@ public final class FieldSynthesizer {
             cacheU = null;
             cacheH = null;
         }
+    }
+
+    private boolean allInside(int offset, int size) {
+        for (int p = offset; p < offset + size; p++) {
+            if (!inside[p]) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /** @return number of points */
@@ -125,6 +199,9 @@ public final class FieldSynthesizer {
         pool.submit(() -> IntStream.range(0, chunks).parallel().forEach(c -> {
             int end = Math.min(nPoints, (c + 1) * chunk);
             for (int p = c * chunk; p < end; p++) {
+                if (fast[p]) {
+                    continue;
+                }
                 if (!inside[p]) {
                     fillOutside(p, q.length, outA, outE, outB);
                     continue;
@@ -155,6 +232,30 @@ public final class FieldSynthesizer {
                 }
             }
         })).join();
+        if (!segments.isEmpty()) {
+            pool.submit(() -> IntStream.range(0, q.length).parallel().forEach(s -> {
+                for (GridSegment g : segments) {
+                    if (outA != null) {
+                        g.sum().sum(q[s], false, outA[s], 3 * g.offset());
+                        checkSegment(outA[s], g, Field.A, firstSample + s);
+                    }
+                    if (outE != null) {
+                        g.sum().sum(e[s], false, outE[s], 3 * g.offset());
+                        checkSegment(outE[s], g, Field.E, firstSample + s);
+                    }
+                    if (outB != null) {
+                        g.sum().sum(q[s], true, outB[s], 3 * g.offset());
+                        checkSegment(outB[s], g, Field.B, firstSample + s);
+                    }
+                }
+            })).join();
+        }
+    }
+
+    private void checkSegment(double[] values, GridSegment g, Field f, long sample) {
+        for (int j = 3 * g.offset(); j < 3 * (g.offset() + g.size()); j++) {
+            check(values[j], f, j % 3, j / 3, sample);
+        }
     }
 
     /** Points outside the cavity (grids over a bounding box) carry NaN: no field is defined there. */

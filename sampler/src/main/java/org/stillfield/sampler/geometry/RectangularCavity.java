@@ -10,6 +10,7 @@ import org.stillfield.sampler.api.Cavity;
 import org.stillfield.sampler.api.Medium;
 import org.stillfield.sampler.api.Mode;
 import org.stillfield.sampler.api.ModeFunctions;
+import org.stillfield.sampler.api.TensorGridSum;
 import org.stillfield.sampler.api.Vec3;
 
 /**
@@ -152,6 +153,47 @@ public final class RectangularCavity implements Cavity {
         return out;
     }
 
+    /**
+     * The constant vectors of one box mode: {N e_x, N e_y, N e_z, N (k×e)_x/k, N (k×e)_y/k, N (k×e)_z/k},
+     * so that u_i = coef[i]·(trig pattern of u) and h_i = coef[3+i]·(trig pattern of h).
+     */
+    static double[] coefficients(Mode mode, double a, double b, double d) {
+        int l = mode.i1();
+        int m = mode.i2();
+        int n = mode.i3();
+        double kx = l * Math.PI / a;
+        double ky = m * Math.PI / b;
+        double kz = n * Math.PI / d;
+        double k = Math.sqrt(kx * kx + ky * ky + kz * kz);
+        int zeros = (l == 0 ? 1 : 0) + (m == 0 ? 1 : 0) + (n == 0 ? 1 : 0);
+        double ex;
+        double ey;
+        double ez;
+        double norm;
+        if (zeros == 1) {
+            norm = 2.0;
+            ex = l == 0 ? 1 : 0;
+            ey = m == 0 ? 1 : 0;
+            ez = n == 0 ? 1 : 0;
+        } else if (zeros == 0) {
+            norm = Math.sqrt(8.0);
+            double kr = Math.hypot(kx, ky);
+            if ("TE".equals(mode.family())) {
+                ex = -ky / kr;
+                ey = kx / kr;
+                ez = 0;
+            } else {
+                ex = -kx * kz / (kr * k);
+                ey = -ky * kz / (kr * k);
+                ez = kr / k;
+            }
+        } else {
+            throw new IllegalArgumentException("not a box mode (two or more zero indices): " + mode.label());
+        }
+        return new double[] {norm * ex, norm * ey, norm * ez,
+            norm * (ky * ez - kz * ey) / k, norm * (kz * ex - kx * ez) / k, norm * (kx * ey - ky * ex) / k};
+    }
+
     /** Frequency order, ties broken by label so the list is the same on every machine. */
     static final Comparator<Mode> ORDER = Comparator.comparingDouble(Mode::k)
         .thenComparing(Mode::family)
@@ -163,6 +205,11 @@ public final class RectangularCavity implements Cavity {
     @Override
     public ModeFunctions modeFunctions(List<Mode> modes) {
         return new BoxModeFunctions(modes);
+    }
+
+    @Override
+    public TensorGridSum tensorGridSum(List<Mode> modes, double[] xs, double[] ys, double[] zs) {
+        return new BoxTensorGridSum(a, b, d, modes, xs, ys, zs);
     }
 
     /**
@@ -202,41 +249,9 @@ public final class RectangularCavity implements Cavity {
                 lm = Math.max(lm, l);
                 mm = Math.max(mm, m);
                 nm = Math.max(nm, n);
-                double kx = l * Math.PI / a;
-                double ky = m * Math.PI / b;
-                double kz = n * Math.PI / d;
-                double k = Math.sqrt(kx * kx + ky * ky + kz * kz);
-                int zeros = (l == 0 ? 1 : 0) + (m == 0 ? 1 : 0) + (n == 0 ? 1 : 0);
-                double ex;
-                double ey;
-                double ez;
-                double norm;
-                if (zeros == 1) {
-                    norm = 2.0;
-                    ex = l == 0 ? 1 : 0;
-                    ey = m == 0 ? 1 : 0;
-                    ez = n == 0 ? 1 : 0;
-                } else if (zeros == 0) {
-                    norm = Math.sqrt(8.0);
-                    double kr = Math.hypot(kx, ky);
-                    if ("TE".equals(mode.family())) {
-                        ex = -ky / kr;
-                        ey = kx / kr;
-                        ez = 0;
-                    } else {
-                        ex = -kx * kz / (kr * k);
-                        ey = -ky * kz / (kr * k);
-                        ez = kr / k;
-                    }
-                } else {
-                    throw new IllegalArgumentException("not a box mode (two or more zero indices): " + mode.label());
-                }
-                ue[3 * q] = norm * ex;
-                ue[3 * q + 1] = norm * ey;
-                ue[3 * q + 2] = norm * ez;
-                he[3 * q] = norm * (ky * ez - kz * ey) / k;
-                he[3 * q + 1] = norm * (kz * ex - kx * ez) / k;
-                he[3 * q + 2] = norm * (kx * ey - ky * ex) / k;
+                double[] coef = coefficients(mode, a, b, d);
+                System.arraycopy(coef, 0, ue, 3 * q, 3);
+                System.arraycopy(coef, 3, he, 3 * q, 3);
             }
             lMax = lm;
             mMax = mm;
