@@ -72,12 +72,13 @@ final class BoxTensorGridSum implements TensorGridSum {
         cz = table(zs, nn, Math.PI / d, false);
     }
 
+    /** Table transposed for axpy loops: t[l][i] = sin or cos(l·step·coords[i]). */
     private static double[][] table(double[] coords, int n, double step, boolean sine) {
-        double[][] t = new double[coords.length][n];
-        for (int i = 0; i < coords.length; i++) {
-            for (int l = 0; l < n; l++) {
+        double[][] t = new double[n][coords.length];
+        for (int l = 0; l < n; l++) {
+            for (int i = 0; i < coords.length; i++) {
                 double th = l * step * coords[i];
-                t[i][l] = sine ? Math.sin(th) : Math.cos(th);
+                t[l][i] = sine ? Math.sin(th) : Math.cos(th);
             }
         }
         return t;
@@ -89,6 +90,7 @@ final class BoxTensorGridSum implements TensorGridSum {
         double[] c = new double[nl * nm * nn];
         double[] t1 = new double[nl * nm * nz];
         double[] t2 = new double[nl * ny * nz];
+        double[] row = new double[nx];
         for (int comp = 0; comp < 3; comp++) {
             java.util.Arrays.fill(c, 0.0);
             for (int q = 0; q < nModes; q++) {
@@ -98,53 +100,59 @@ final class BoxTensorGridSum implements TensorGridSum {
             boolean xCos = curl ? comp != 0 : comp == 0;
             boolean yCos = curl ? comp != 1 : comp == 1;
             boolean zCos = curl ? comp != 2 : comp == 2;
-            contract(c, xCos ? cx : sx, yCos ? cy : sy, zCos ? cz : sz, t1, t2, out, offset, comp);
+            contract(c, xCos ? cx : sx, yCos ? cy : sy, zCos ? cz : sz, t1, t2, row, out, offset, comp);
         }
     }
 
+    // Each step is a sequence of axpy updates over a contiguous output run (which the JIT
+    // vectorises), instead of strided dot products.
     private void contract(double[] c, double[][] tx, double[][] ty, double[][] tz, double[] t1, double[] t2,
-                          double[] out, int offset, int comp) {
-        // T1[l][m][k] = Σ_n c[l][m][n] Z[k][n]
+                          double[] row, double[] out, int offset, int comp) {
+        // T1[l][m][k] = Σ_n c[l][m][n] Z[n][k]
+        java.util.Arrays.fill(t1, 0.0);
         for (int lm = 0; lm < nl * nm; lm++) {
-            int base = lm * nn;
-            for (int k = 0; k < nz; k++) {
-                double[] z = tz[k];
-                double s = 0;
-                for (int n = 0; n < nn; n++) {
-                    s += c[base + n] * z[n];
+            int dst = lm * nz;
+            for (int n = 0; n < nn; n++) {
+                double w = c[lm * nn + n];
+                if (w != 0.0) {
+                    axpy(w, tz[n], 0, t1, dst, nz);
                 }
-                t1[lm * nz + k] = s;
             }
         }
-        // T2[l][j][k] = Σ_m T1[l][m][k] Y[j][m]
+        // T2[l][j][k] = Σ_m Y[m][j] T1[l][m][k]
         java.util.Arrays.fill(t2, 0.0);
         for (int l = 0; l < nl; l++) {
-            for (int m = 0; m < nm; m++) {
-                int src = (l * nm + m) * nz;
-                for (int j = 0; j < ny; j++) {
-                    double y = ty[j][m];
-                    if (y == 0.0) {
-                        continue;
-                    }
-                    int dst = (l * ny + j) * nz;
-                    for (int k = 0; k < nz; k++) {
-                        t2[dst + k] += t1[src + k] * y;
+            for (int j = 0; j < ny; j++) {
+                int dst = (l * ny + j) * nz;
+                for (int m = 0; m < nm; m++) {
+                    double w = ty[m][j];
+                    if (w != 0.0) {
+                        axpy(w, t1, (l * nm + m) * nz, t2, dst, nz);
                     }
                 }
             }
         }
-        // F[i][j][k] = Σ_l T2[l][j][k] X[i][l], written with x fastest.
+        // F[k][j][i] = Σ_l T2[l][j][k] X[l][i], x fastest, scattered into the interleaved output.
         for (int k = 0; k < nz; k++) {
             for (int j = 0; j < ny; j++) {
-                for (int i = 0; i < nx; i++) {
-                    double[] x = tx[i];
-                    double s = 0;
-                    for (int l = 0; l < nl; l++) {
-                        s += t2[(l * ny + j) * nz + k] * x[l];
+                java.util.Arrays.fill(row, 0.0);
+                for (int l = 0; l < nl; l++) {
+                    double w = t2[(l * ny + j) * nz + k];
+                    if (w != 0.0) {
+                        axpy(w, tx[l], 0, row, 0, nx);
                     }
-                    out[offset + 3 * (i + nx * (j + ny * k)) + comp] = s;
+                }
+                int base = offset + 3 * nx * (j + ny * k) + comp;
+                for (int i = 0; i < nx; i++) {
+                    out[base + 3 * i] = row[i];
                 }
             }
+        }
+    }
+
+    private static void axpy(double w, double[] x, int xOff, double[] y, int yOff, int n) {
+        for (int i = 0; i < n; i++) {
+            y[yOff + i] += w * x[xOff + i];
         }
     }
 }
