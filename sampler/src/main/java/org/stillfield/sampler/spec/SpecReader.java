@@ -373,9 +373,11 @@ public final class SpecReader {
         if (!m.matches()) {
             return range;
         }
-        long i = Long.parseLong(m.group(2));
+        String digits = m.group(2);
+        // \d+ can exceed a long; any index that long is out of range anyway.
+        long i = digits.length() > 18 ? Long.MAX_VALUE : Long.parseLong(digits);
         if (i >= range[1]) {
-            throw new SpecException(path, "index " + i + " is out of range for '" + name + "' (0 to " + (range[1] - 1) + ")");
+            throw new SpecException(path, "index " + digits + " is out of range for '" + name + "' (0 to " + (range[1] - 1) + ")");
         }
         return new int[] {range[0] + (int) i, 1};
     }
