@@ -248,10 +248,12 @@ public final class SpecReader {
                 }
                 nd[i] = ((Number) o).longValue();
             }
-            long count = nd[0] * nd[1] * nd[2];
-            if (count > MAX_POINTS) {
-                throw new SpecException(g.at("n"), "grid of " + count + " points exceeds the limit of " + MAX_POINTS);
+            // Three sizes up to MAX_POINTS each can overflow a long product: compare in double first.
+            if ((double) nd[0] * nd[1] * nd[2] > MAX_POINTS) {
+                throw new SpecException(g.at("n"), "grid of " + nd[0] + " x " + nd[1] + " x " + nd[2]
+                    + " points exceeds the limit of " + MAX_POINTS);
             }
+            long count = nd[0] * nd[1] * nd[2];
             sets.add(PointSet.grid(n, a, b, (int) nd[0], (int) nd[1], (int) nd[2]));
             total += count;
         }
