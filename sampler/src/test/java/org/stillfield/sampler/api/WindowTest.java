@@ -75,7 +75,8 @@ class WindowTest {
             }
         }
         // Closed form for p = 3: ∫_x^∞ t³e^{−t} dt / Γ(4) = e^{−x}(1 + x + x²/2 + x³/6)
-        // (Abramowitz & Stegun 6.5.13). At tol = 1e-9, x = 9 ln 10.
+        // (incomplete gamma function of integer order; Abramowitz & Stegun 6.5.13, source from
+        // memory). At tol = 1e-9, x = 9 ln 10.
         Window exp = new Window(Window.Kind.EXP, OMEGA_C, 1e-9);
         double x = 9 * Math.log(10);
         double closed = Math.exp(-x) * (1 + x + x * x / 2 + x * x * x / 6);

@@ -139,13 +139,17 @@ class SamplerStatisticsTest {
         assertTrue(p >= ALPHA, "KS of " + (2 * m * N) + " pooled standardised amplitudes: p = " + p + ", seed " + SEED);
         // Power: for N(0, 1.05²) against N(0,1) the KS distance is sup|Φ(x) − Φ(x/1.05)| ≈ 0.0115,
         // √(2Mn)·0.0115 ≥ 5.1 for 2Mn ≥ 2e5; the 1 % point is 1.63, and the sampling error of the
-        // empirical CDF exceeds 3.4/√n with probability ≤ 2e^{−2·3.4²} ≈ 2e-10 (Kolmogorov tail).
+        // empirical CDF exceeds 3.4/√n with probability ≤ 2e^{−2·3.4²} ≈ 2e-10 (Dvoretzky–Kiefer–
+        // Wolfowitz inequality with Massart's constant; source from memory).
         assertTrue(2 * m * N >= 200_000, "sample size for the power check: " + 2 * m * N);
         double pWide = pooledKsP(1.05);
         assertTrue(pWide < 0.01, "×1.05 amplitudes must be rejected by KS: p = " + pWide + ", seed " + SEED);
     }
 
-    /** Σ over pairs of n·ĉ², ĉ = (1/n)Σ x y of standardised amplitudes: ~ χ²_pairs when independent. */
+    /**
+     * Σ over pairs of n·ĉ², ĉ = (1/n)Σ x y of standardised amplitudes. For independent pairs this is
+     * χ²_pairs up to the central-limit approximation: the sum's excess kurtosis is 6/n = 1.2e-3 here.
+     */
     private static double correlationChi2(List<double[][]> pairs) {
         double chi2 = 0;
         for (double[][] p : pairs) {
@@ -155,7 +159,7 @@ class SamplerStatisticsTest {
             }
             c /= N;
             // Known-mean covariance of independent unit Gaussians has variance 1/n (Isserlis with
-            // σ_xy = 0; REFERENCE-VALUES.md §8).
+            // σ_xy = 0; REFERENCE-VALUES.md §8, Isserlis 1918 source from memory, formula verified there).
             chi2 += N * c * c;
         }
         return chi2;
