@@ -70,10 +70,11 @@ public record PointSet(String name, Kind kind, List<Vec3> points, int[] dims) {
         if (nx < 1 || ny < 1 || nz < 1) {
             throw new IllegalArgumentException("grid sizes must be >= 1: " + nx + "x" + ny + "x" + nz);
         }
-        long total = (long) nx * ny * nz;
-        if (total > Integer.MAX_VALUE / 4) {
-            throw new IllegalArgumentException("grid has too many points: " + total);
+        // Compared in double: three int sizes can overflow even a long product.
+        if ((double) nx * ny * nz > Integer.MAX_VALUE / 4) {
+            throw new IllegalArgumentException("grid has too many points: " + nx + "x" + ny + "x" + nz);
         }
+        long total = (long) nx * ny * nz;
         Vec3[] pts = new Vec3[(int) total];
         double dx = (to.x() - from.x()) / nx;
         double dy = (to.y() - from.y()) / ny;

@@ -248,10 +248,12 @@ public final class SpecReader {
                 }
                 nd[i] = ((Number) o).longValue();
             }
-            long count = nd[0] * nd[1] * nd[2];
-            if (count > MAX_POINTS) {
-                throw new SpecException(g.at("n"), "grid of " + count + " points exceeds the limit of " + MAX_POINTS);
+            // Three sizes up to MAX_POINTS each can overflow a long product: compare in double first.
+            if ((double) nd[0] * nd[1] * nd[2] > MAX_POINTS) {
+                throw new SpecException(g.at("n"), "grid of " + nd[0] + " x " + nd[1] + " x " + nd[2]
+                    + " points exceeds the limit of " + MAX_POINTS);
             }
+            long count = nd[0] * nd[1] * nd[2];
             sets.add(PointSet.grid(n, a, b, (int) nd[0], (int) nd[1], (int) nd[2]));
             total += count;
         }
@@ -373,9 +375,11 @@ public final class SpecReader {
         if (!m.matches()) {
             return range;
         }
-        long i = Long.parseLong(m.group(2));
+        String digits = m.group(2);
+        // \d+ can exceed a long; any index that long is out of range anyway.
+        long i = digits.length() > 18 ? Long.MAX_VALUE : Long.parseLong(digits);
         if (i >= range[1]) {
-            throw new SpecException(path, "index " + i + " is out of range for '" + name + "' (0 to " + (range[1] - 1) + ")");
+            throw new SpecException(path, "index " + digits + " is out of range for '" + name + "' (0 to " + (range[1] - 1) + ")");
         }
         return new int[] {range[0] + (int) i, 1};
     }
