@@ -74,6 +74,9 @@ public record Window(Kind kind, double omegaC, double tolerance) {
      * @return neglected fraction in [0,1]; 0 for a hard window
      */
     public double neglectedFraction(int p) {
+        if (p < 0) {
+            throw new IllegalArgumentException("power p must be >= 0: " + p);
+        }
         double x = truncationOmega() / omegaC;
         switch (kind) {
             case HARD: return 0.0;
