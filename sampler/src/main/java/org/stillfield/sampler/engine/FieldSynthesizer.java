@@ -1,6 +1,7 @@
 package org.stillfield.sampler.engine;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.EnumSet;
 import java.util.List;
 import java.util.Map;
@@ -16,13 +17,22 @@ import org.stillfield.sampler.api.Vec3;
 
 /**
  * Sums the modes at the evaluation points: A = Σ q_l u_l, E = Σ e_l u_l, B = Σ k_l q_l h_l
- * (PHYSICS.md §2). Geometry enters only through {@link ModeFunctions}.
+ * (PHYSICS.md §2). Geometry enters only through {@link ModeFunctions} and, for grids of cavities
+ * that offer one, the exact {@link TensorGridSum}.
  *
- * <p>When the basis of all points fits in the cache budget it is evaluated once; otherwise it is
- * re-evaluated per point for every batch. Each output value is a dot product in a fixed order, so
- * results are bit-identical for any thread count.
+ * <p>Other points are handled in blocks of up to {@value #BLOCK} consecutive points. A block's
+ * basis is stored mode-major, basis[l·w + 3j + i] (w = 3·block size), so the sum over modes for a
+ * batch of samples is a matrix product Out(S × w) = Amp(S × M)·Basis(M × w), done as contiguous
+ * axpy updates over mode tiles that stay in cache across the samples. When all blocks' bases fit
+ * the cache budget they are evaluated once; otherwise per batch. Every output value sums the
+ * modes in increasing order, so results are bit-identical for any thread count.
  */
 public final class FieldSynthesizer {
+    /** Points per block of the generic path. */
+    static final int BLOCK = 32;
+    /** Modes per tile: a tile of a block's basis (TILE × 3·BLOCK doubles, 192 KiB) stays in L2. */
+    static final int TILE = 256;
+
     private final ModeFunctions functions;
     private final List<Vec3> points;
     private final Set<Field> fields;
@@ -30,11 +40,23 @@ public final class FieldSynthesizer {
     private final double[] k;
     private final boolean needU;
     private final boolean needH;
-    private final double[][] cacheU;
-    private final double[][] cacheH;
     private final boolean[] inside;
-    private final boolean[] fast;
+    private final List<Block> blocks = new ArrayList<>();
     private final List<GridSegment> segments = new ArrayList<>();
+    private final boolean cached;
+
+    /** Consecutive points [start, start + size) of the generic path, with their basis if cached. */
+    private static final class Block {
+        final int start;
+        final int size;
+        double[] u;
+        double[] hk;
+
+        Block(int start, int size) {
+            this.start = start;
+            this.size = size;
+        }
+    }
 
     /** A grid handled by the cavity's exact tensor-product sum. */
     private record GridSegment(int offset, int size, TensorGridSum sum) {
@@ -51,9 +73,8 @@ public final class FieldSynthesizer {
     }
 
     /**
-     * Like the constructor, with the points given as sets: grid
-     * sets of a cavity that offers a {@link TensorGridSum} (and lie wholly inside it) take that
-     * exact fast path.
+     * Like the constructor, with the points given as sets: grid sets of a cavity that offers a
+     * {@link TensorGridSum} (and lie wholly inside it) take that exact fast path.
      *
      * @param table the modes
      * @param sets evaluation point sets, in global point order
@@ -62,15 +83,11 @@ public final class FieldSynthesizer {
      * @return the synthesiser
      */
     public static FieldSynthesizer forSets(ModeTable table, List<PointSet> sets, Set<Field> fields, long cacheBytes) {
-        return new FieldSynthesizer(table, flatten(sets), sets, fields, cacheBytes);
-    }
-
-    private static List<Vec3> flatten(List<PointSet> sets) {
-        List<Vec3> out = new ArrayList<>();
+        List<Vec3> all = new ArrayList<>();
         for (PointSet s : sets) {
-            out.addAll(s.points());
+            all.addAll(s.points());
         }
-        return out;
+        return new FieldSynthesizer(table, all, sets, fields, cacheBytes);
     }
 
     private FieldSynthesizer(ModeTable table, List<Vec3> points, List<PointSet> sets, Set<Field> fields, long cacheBytes) {
@@ -85,58 +102,63 @@ public final class FieldSynthesizer {
         for (int l = 0; l < modes; l++) {
             k[l] = table.modes().get(l).k();
         }
-        this.inside = new boolean[this.points.size()];
-        for (int p = 0; p < inside.length; p++) {
+        int n = this.points.size();
+        this.inside = new boolean[n];
+        for (int p = 0; p < n; p++) {
             inside[p] = table.cavity().contains(this.points.get(p));
         }
-        this.fast = new boolean[this.points.size()];
+        boolean[] fast = new boolean[n];
         int offset = 0;
         for (PointSet set : sets) {
             if (set.kind() == PointSet.Kind.GRID && allInside(offset, set.size())) {
-                int[] n = set.dims();
-                double[] xs = new double[n[0]];
-                double[] ys = new double[n[1]];
-                double[] zs = new double[n[2]];
-                List<Vec3> pts = set.points();
-                for (int i = 0; i < n[0]; i++) {
-                    xs[i] = pts.get(i).x();
-                }
-                for (int j = 0; j < n[1]; j++) {
-                    ys[j] = pts.get(j * n[0]).y();
-                }
-                for (int k = 0; k < n[2]; k++) {
-                    zs[k] = pts.get(k * n[0] * n[1]).z();
-                }
-                TensorGridSum sum = table.cavity().tensorGridSum(table.modes(), xs, ys, zs);
+                TensorGridSum sum = gridSum(table, set);
                 if (sum != null) {
                     segments.add(new GridSegment(offset, set.size(), sum));
-                    java.util.Arrays.fill(fast, offset, offset + set.size(), true);
+                    Arrays.fill(fast, offset, offset + set.size(), true);
                 }
             }
             offset += set.size();
         }
-        if (!sets.isEmpty() && offset != this.points.size()) {
+        if (!sets.isEmpty() && offset != n) {
             throw new IllegalArgumentException("point sets do not add up to the point list");
+        }
+        for (int p = 0; p < n;) {
+            if (fast[p]) {
+                p++;
+                continue;
+            }
+            int start = p;
+            while (p < n && !fast[p] && p - start < BLOCK) {
+                p++;
+            }
+            blocks.add(new Block(start, p - start));
         }
         needU = fields.contains(Field.A) || fields.contains(Field.E);
         needH = fields.contains(Field.B);
-        long perPoint = 3L * modes * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0));
-        if (perPoint * points.size() <= cacheBytes) {
-            cacheU = needU ? new double[points.size()][] : null;
-            cacheH = needH ? new double[points.size()][] : null;
-            IntStream.range(0, points.size()).parallel().filter(p -> !fast[p]).forEach(p -> {
-                double[][] basis = basis(p);
-                if (needU) {
-                    cacheU[p] = basis[0];
-                }
-                if (needH) {
-                    cacheH[p] = basis[1];
-                }
-            });
-        } else {
-            cacheU = null;
-            cacheH = null;
+        long genericPoints = blocks.stream().mapToLong(b -> b.size).sum();
+        long bytes = 3L * modes * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0)) * genericPoints;
+        cached = bytes <= cacheBytes;
+        if (cached) {
+            blocks.parallelStream().forEach(this::fillBasis);
         }
+    }
+
+    private static TensorGridSum gridSum(ModeTable table, PointSet set) {
+        int[] n = set.dims();
+        double[] xs = new double[n[0]];
+        double[] ys = new double[n[1]];
+        double[] zs = new double[n[2]];
+        List<Vec3> pts = set.points();
+        for (int i = 0; i < n[0]; i++) {
+            xs[i] = pts.get(i).x();
+        }
+        for (int j = 0; j < n[1]; j++) {
+            ys[j] = pts.get(j * n[0]).y();
+        }
+        for (int kk = 0; kk < n[2]; kk++) {
+            zs[kk] = pts.get(kk * n[0] * n[1]).z();
+        }
+        return table.cavity().tensorGridSum(table.modes(), xs, ys, zs);
     }
 
     private boolean allInside(int offset, int size) {
@@ -158,26 +180,38 @@ public final class FieldSynthesizer {
         return EnumSet.copyOf(fields);
     }
 
-    /** Component-major basis of one point: [x block | y block | z block], h already times k. */
-    private double[][] basis(int p) {
-        Vec3 r = points.get(p);
-        double[] u = needU ? new double[3 * modes] : null;
-        double[] h = needH ? new double[3 * modes] : null;
-        functions.evaluate(r.x(), r.y(), r.z(), u, h);
-        double[] uc = needU ? transpose(u, null) : null;
-        double[] hc = needH ? transpose(h, k) : null;
-        return new double[][] {uc, hc};
+    /** @return true if point p lies inside the cavity */
+    public boolean inside(int p) {
+        return inside[p];
     }
 
-    private double[] transpose(double[] interleaved, double[] scale) {
-        double[] out = new double[3 * modes];
-        for (int l = 0; l < modes; l++) {
-            double s = scale == null ? 1.0 : scale[l];
-            out[l] = s * interleaved[3 * l];
-            out[modes + l] = s * interleaved[3 * l + 1];
-            out[2 * modes + l] = s * interleaved[3 * l + 2];
+    /** Evaluates a block's basis, mode-major; points outside the cavity get zero columns. */
+    private void fillBasis(Block b) {
+        int w = 3 * b.size;
+        double[] u = needU ? new double[modes * w] : null;
+        double[] hk = needH ? new double[modes * w] : null;
+        double[] pu = needU ? new double[3 * modes] : null;
+        double[] ph = needH ? new double[3 * modes] : null;
+        for (int j = 0; j < b.size; j++) {
+            int p = b.start + j;
+            if (!inside[p]) {
+                continue;
+            }
+            Vec3 r = points.get(p);
+            functions.evaluate(r.x(), r.y(), r.z(), pu, ph);
+            for (int l = 0; l < modes; l++) {
+                for (int i = 0; i < 3; i++) {
+                    if (u != null) {
+                        u[l * w + 3 * j + i] = pu[3 * l + i];
+                    }
+                    if (hk != null) {
+                        hk[l * w + 3 * j + i] = k[l] * ph[3 * l + i];
+                    }
+                }
+            }
         }
-        return out;
+        b.u = u;
+        b.hk = hk;
     }
 
     /**
@@ -190,46 +224,23 @@ public final class FieldSynthesizer {
      * @param firstSample global index of sample 0, for error messages
      */
     public void synthesize(double[][] q, double[][] e, Map<Field, double[][]> out, ForkJoinPool pool, long firstSample) {
-        int nPoints = points.size();
-        int chunk = Math.max(1, Math.min(64, nPoints / (4 * pool.getParallelism()) + 1));
-        int chunks = (nPoints + chunk - 1) / chunk;
         double[][] outA = out.get(Field.A);
         double[][] outE = out.get(Field.E);
         double[][] outB = out.get(Field.B);
-        pool.submit(() -> IntStream.range(0, chunks).parallel().forEach(c -> {
-            int end = Math.min(nPoints, (c + 1) * chunk);
-            for (int p = c * chunk; p < end; p++) {
-                if (fast[p]) {
-                    continue;
-                }
-                if (!inside[p]) {
-                    fillOutside(p, q.length, outA, outE, outB);
-                    continue;
-                }
-                double[] u;
-                double[] hk;
-                if (cacheU != null || cacheH != null) {
-                    u = cacheU == null ? null : cacheU[p];
-                    hk = cacheH == null ? null : cacheH[p];
-                } else {
-                    double[][] b = basis(p);
-                    u = b[0];
-                    hk = b[1];
-                }
-                for (int s = 0; s < q.length; s++) {
-                    for (int i = 0; i < 3; i++) {
-                        int off = i * modes;
-                        if (outA != null) {
-                            outA[s][3 * p + i] = check(dot(u, off, q[s]), Field.A, i, p, firstSample + s);
-                        }
-                        if (outE != null) {
-                            outE[s][3 * p + i] = check(dot(u, off, e[s]), Field.E, i, p, firstSample + s);
-                        }
-                        if (outB != null) {
-                            outB[s][3 * p + i] = check(dot(hk, off, q[s]), Field.B, i, p, firstSample + s);
-                        }
-                    }
-                }
+        pool.submit(() -> blocks.parallelStream().forEach(b -> {
+            Block blk = b;
+            if (!cached) {
+                blk = new Block(b.start, b.size);
+                fillBasis(blk);
+            }
+            if (outA != null) {
+                product(blk, blk.u, q, outA, Field.A, firstSample);
+            }
+            if (outE != null) {
+                product(blk, blk.u, e, outE, Field.E, firstSample);
+            }
+            if (outB != null) {
+                product(blk, blk.hk, q, outB, Field.B, firstSample);
             }
         })).join();
         if (!segments.isEmpty()) {
@@ -237,70 +248,68 @@ public final class FieldSynthesizer {
                 for (GridSegment g : segments) {
                     if (outA != null) {
                         g.sum().sum(q[s], false, outA[s], 3 * g.offset());
-                        checkSegment(outA[s], g, Field.A, firstSample + s);
+                        checkRange(outA[s], g.offset(), g.size(), Field.A, firstSample + s);
                     }
                     if (outE != null) {
                         g.sum().sum(e[s], false, outE[s], 3 * g.offset());
-                        checkSegment(outE[s], g, Field.E, firstSample + s);
+                        checkRange(outE[s], g.offset(), g.size(), Field.E, firstSample + s);
                     }
                     if (outB != null) {
                         g.sum().sum(q[s], true, outB[s], 3 * g.offset());
-                        checkSegment(outB[s], g, Field.B, firstSample + s);
+                        checkRange(outB[s], g.offset(), g.size(), Field.B, firstSample + s);
                     }
                 }
             })).join();
         }
     }
 
-    private void checkSegment(double[] values, GridSegment g, Field f, long sample) {
-        for (int j = 3 * g.offset(); j < 3 * (g.offset() + g.size()); j++) {
-            check(values[j], f, j % 3, j / 3, sample);
+    /** Out[s][3·start .. 3·start + w) = Σ_l amp[s][l]·basis[l·w ..], modes in increasing order. */
+    private void product(Block b, double[] basis, double[][] amp, double[][] out, Field f, long firstSample) {
+        int w = 3 * b.size;
+        int o = 3 * b.start;
+        for (double[] row : out) {
+            Arrays.fill(row, o, o + w, 0.0);
         }
-    }
-
-    /** Points outside the cavity (grids over a bounding box) carry NaN: no field is defined there. */
-    private static void fillOutside(int p, int samples, double[][]... outs) {
-        for (double[][] out : outs) {
-            if (out != null) {
-                for (int s = 0; s < samples; s++) {
+        for (int l0 = 0; l0 < modes; l0 += TILE) {
+            int l1 = Math.min(modes, l0 + TILE);
+            for (int s = 0; s < amp.length; s++) {
+                double[] a = amp[s];
+                double[] row = out[s];
+                for (int l = l0; l < l1; l++) {
+                    double c = a[l];
+                    int base = l * w;
+                    for (int j = 0; j < w; j++) {
+                        row[o + j] += c * basis[base + j];
+                    }
+                }
+            }
+        }
+        for (int s = 0; s < amp.length; s++) {
+            for (int j = 0; j < b.size; j++) {
+                int p = b.start + j;
+                if (!inside[p]) {
                     out[s][3 * p] = Double.NaN;
                     out[s][3 * p + 1] = Double.NaN;
                     out[s][3 * p + 2] = Double.NaN;
                 }
             }
+            checkRange(out[s], b.start, b.size, f, firstSample + s);
         }
     }
 
-    /** @return true if point p lies inside the cavity */
-    public boolean inside(int p) {
-        return inside[p];
-    }
-
-    private double check(double v, Field f, int i, int p, long sample) {
-        if (!Double.isFinite(v)) {
-            Vec3 r = points.get(p);
-            throw new IllegalStateException(String.format(
-                "non-finite %s at point %d (%g, %g, %g) m in sample %d", f.column(i), p, r.x(), r.y(), r.z(), sample));
+    // Points outside the cavity carry NaN on purpose; everything else must be finite.
+    private void checkRange(double[] values, int start, int size, Field f, long sample) {
+        for (int p = start; p < start + size; p++) {
+            if (!inside[p]) {
+                continue;
+            }
+            for (int i = 0; i < 3; i++) {
+                if (!Double.isFinite(values[3 * p + i])) {
+                    Vec3 r = points.get(p);
+                    throw new IllegalStateException(String.format(
+                        "non-finite %s at point %d (%g, %g, %g) m in sample %d", f.column(i), p, r.x(), r.y(), r.z(), sample));
+                }
+            }
         }
-        return v;
-    }
-
-    /** Four independent accumulators: shorter dependency chains, and a fixed summation order. */
-    private double dot(double[] basis, int off, double[] amp) {
-        double s0 = 0;
-        double s1 = 0;
-        double s2 = 0;
-        double s3 = 0;
-        int l = 0;
-        for (; l + 3 < modes; l += 4) {
-            s0 += basis[off + l] * amp[l];
-            s1 += basis[off + l + 1] * amp[l + 1];
-            s2 += basis[off + l + 2] * amp[l + 2];
-            s3 += basis[off + l + 3] * amp[l + 3];
-        }
-        for (; l < modes; l++) {
-            s0 += basis[off + l] * amp[l];
-        }
-        return (s0 + s1) + (s2 + s3);
     }
 }
