@@ -250,7 +250,7 @@ final class ChartStyle {
     }
 
     /**
-     * Sets a fixed tick spacing from the 1–2–5 series giving about {@code target} labelled ticks
+     * Sets a fixed tick spacing from the 1–2–2.5–5 series giving about {@code target} labelled ticks
      * over [lo, hi], and a number format with just enough decimals for that spacing. JFreeChart's
      * automatic choice packs vertical axes with a tick every label height, which reads as noise.
      */
@@ -271,10 +271,10 @@ final class ChartStyle {
         axis.setTickUnit(new NumberTickUnit(step, f));
     }
 
-    /** @return the smallest of 1, 2, 5 × 10^k that is ≥ raw */
+    /** @return the smallest of 1, 2, 2.5, 5 × 10^k that is ≥ raw */
     static double niceStep(double raw) {
         double p = Math.pow(10, Math.floor(Math.log10(raw)));
-        for (double m : new double[] {1, 2, 5, 10}) {
+        for (double m : new double[] {1, 2, 2.5, 5, 10}) {
             if (m * p >= raw * (1 - 1e-12)) {
                 return m * p;
             }

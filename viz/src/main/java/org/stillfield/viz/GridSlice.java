@@ -55,16 +55,19 @@ public record GridSlice(String title, Field field, String component, String xAxi
         values = copy;
     }
 
+    /** @return a copy of the horizontal cell centres, metres */
     @Override
     public double[] xCentres() {
         return xCentres.clone();
     }
 
+    /** @return a copy of the vertical cell centres, metres */
     @Override
     public double[] yCentres() {
         return yCentres.clone();
     }
 
+    /** @return a copy of values[iy][ix] */
     @Override
     public double[][] values() {
         double[][] out = new double[values.length][];

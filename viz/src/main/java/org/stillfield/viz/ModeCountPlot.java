@@ -9,6 +9,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import org.jfree.chart.JFreeChart;
+import org.jfree.chart.annotations.XYDrawableAnnotation;
 import org.jfree.chart.axis.NumberAxis;
 import org.jfree.chart.plot.CombinedDomainXYPlot;
 import org.jfree.chart.plot.DatasetRenderingOrder;
@@ -16,6 +17,7 @@ import org.jfree.chart.plot.ValueMarker;
 import org.jfree.chart.plot.XYPlot;
 import org.jfree.chart.renderer.xy.XYLineAndShapeRenderer;
 import org.jfree.chart.renderer.xy.XYStepRenderer;
+import org.jfree.chart.title.TextTitle;
 import org.jfree.chart.ui.RectangleAnchor;
 import org.jfree.chart.ui.TextAnchor;
 import org.jfree.data.xy.XYSeries;
@@ -221,6 +223,8 @@ public final class ModeCountPlot {
             bottom.addDomainMarker(new ValueMarker(fcX, ChartStyle.MUTED, ChartStyle.dashed(1f)));
         }
 
+        top.addAnnotation(inset(x, cavity, xEnd, x.length));
+
         CombinedDomainXYPlot plot = new CombinedDomainXYPlot(xAxis);
         plot.setGap(14);
         plot.add(top, 5);
@@ -234,6 +238,68 @@ public final class ModeCountPlot {
         ChartStyle.subtitle(chart, String.format(Locale.ROOT, "%s (%s); %d modes up to %.4g %s; lowest at %s",
             cavity.shape(), params, table.size(), xEnd, scale == Scale.WAVE_NUMBER ? "rad/m" : "GHz", lowest));
         return chart;
+    }
+
+    /** Modes shown one by one in the inset. */
+    static final int INSET_MODES = 60;
+
+    /**
+     * The first modes, where single steps and the window matter, drawn small in the empty
+     * upper-left corner of the count panel: at full scale they are a flat line near zero.
+     */
+    private XYDrawableAnnotation inset(double[] x, Cavity cavity, double xEnd, int total) {
+        int shown = Math.min(total, INSET_MODES);
+        double xi = Math.min(xEnd, x[shown - 1] * 1.06);
+        XYSeries s = new XYSeries("N", false, true);
+        s.add(0.0, 0.0);
+        int inRange = countAtOrBelow(x, xi);
+        for (int q = 0; q < inRange; q++) {
+            if (q + 1 < x.length && x[q + 1] == x[q]) {
+                continue;
+            }
+            s.add(x[q], q + 1);
+        }
+        s.add(xi, inRange);
+        XYSeries w = new XYSeries("Weyl", false, true);
+        for (int q = 0; q <= 200; q++) {
+            double xq = xi * q / 200;
+            w.add(xq, cavity.weylCount(toK(xq)));
+        }
+        NumberAxis ix = new NumberAxis();
+        NumberAxis iy = new NumberAxis();
+        for (NumberAxis a : new NumberAxis[] {ix, iy}) {
+            ChartStyle.styleAxis(a);
+            a.setTickLabelFont(ChartStyle.NOTE);
+        }
+        ix.setRange(0, xi);
+        ChartStyle.ticks(ix, 0, xi, 5);
+        iy.setAutoRangeIncludesZero(true);
+        ChartStyle.ticks(iy, 0, inRange, 4);
+        XYStepRenderer step = new XYStepRenderer();
+        step.setSeriesPaint(0, STAIR);
+        step.setSeriesStroke(0, ChartStyle.line(1.6f));
+        XYLineAndShapeRenderer smooth = new XYLineAndShapeRenderer(true, false);
+        smooth.setSeriesPaint(0, SMOOTH);
+        smooth.setSeriesStroke(0, ChartStyle.dashed(1.6f));
+        XYPlot p = new XYPlot(new XYSeriesCollection(s), ix, iy, step);
+        p.setDataset(1, new XYSeriesCollection(w));
+        p.setRenderer(1, smooth);
+        p.setDatasetRenderingOrder(DatasetRenderingOrder.FORWARD);
+        ChartStyle.stylePlot(p);
+        double fcX = toX(table.window().omegaC() / cavity.medium().waveSpeed());
+        if (fcX < xi) {
+            p.addDomainMarker(new ValueMarker(fcX, ChartStyle.MUTED, ChartStyle.dashed(1f)));
+        }
+        JFreeChart c = new JFreeChart(null, ChartStyle.NOTE, p, false);
+        c.setBackgroundPaint(ChartStyle.PAPER);
+        c.setBorderVisible(true);
+        c.setBorderPaint(ChartStyle.FRAME);
+        c.setPadding(new org.jfree.chart.ui.RectangleInsets(4, 4, 4, 8));
+        TextTitle t = new TextTitle("first " + shown + " modes", ChartStyle.NOTE);
+        t.setPaint(ChartStyle.MUTED);
+        c.setTitle(t);
+        // Centre in data coordinates of the count panel, whose vertical range is about [0, M].
+        return new XYDrawableAnnotation(0.27 * xEnd, 0.68 * total, 380, 185, c);
     }
 
     /** Writes the chart as a PNG of the default size. */

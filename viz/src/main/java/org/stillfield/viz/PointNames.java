@@ -1,6 +1,5 @@
 package org.stillfield.viz;
 
-import java.util.ArrayList;
 import java.util.List;
 import org.stillfield.sampler.api.PointSet;
 import org.stillfield.sampler.api.Vec3;
@@ -44,14 +43,5 @@ final class PointNames {
             }
         }
         return null;
-    }
-
-    /** @return every set, with its offset, in spec order */
-    List<int[]> indexRanges() {
-        List<int[]> out = new ArrayList<>();
-        for (int s = 0; s < sets.size(); s++) {
-            out.add(new int[] {offsets[s], sets.get(s).size()});
-        }
-        return out;
     }
 }

@@ -125,8 +125,12 @@ public final class RunReport {
                 byRef.values().removeIf(list -> list.stream().mapToInt(CorrelationRow::second).distinct().count() < 2);
                 for (Map.Entry<Integer, List<CorrelationRow>> e : byRef.entrySet()) {
                     String ref = names.name(e.getKey());
+                    boolean onLine = e.getKey() >= off && e.getKey() < off + set.size();
+                    Vec3 rp = names.point(e.getKey());
+                    // The plot prints coordinates of r itself only when r is on the line.
+                    String refLabel = onLine || rp == null ? ref : ref + " " + ChartStyle.point(rp);
                     CorrelationLinePlot plot = CorrelationLinePlot.of(f, set.points(), off, e.getValue())
-                        .withReferenceLabel(ref)
+                        .withReferenceLabel(refLabel)
                         .withThreshold(threshold)
                         .withTitle(CorrelationLinePlot.capitalise(f.description()) + " correlation along '"
                             + set.name() + "'");

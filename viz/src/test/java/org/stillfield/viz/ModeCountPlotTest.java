@@ -95,6 +95,16 @@ class ModeCountPlotTest {
         ModeCountPlot plot = ModeCountPlot.of(table()).withScale(ModeCountPlot.Scale.WAVE_NUMBER);
         // k of TE_101 = π√(1/a² + 1/d²) rad/m.
         assertEquals(Math.PI * Math.sqrt(1 / (A * A) + 1 / (D * D)), plot.sortedPositions()[0], 1e-9);
+        // k = 2πf/c: the same independent count, probed between resonances.
+        TreeMap<Double, Integer> modes = boxModes(30.0);
+        List<Double> f = new ArrayList<>(modes.keySet());
+        XYSeries stairs = plot.staircase();
+        for (int q : new int[] {0, 5, 25, f.size() - 2}) {
+            double fMid = 0.5 * (f.get(q) + f.get(q + 1));
+            double k = 2 * Math.PI * fMid * 1e9 / PhysicalConstants.C;
+            int want = modes.headMap(fMid, true).values().stream().mapToInt(Integer::intValue).sum();
+            assertEquals(want, stepValue(stairs, k), 0.0, "staircase at k = " + k + " rad/m");
+        }
     }
 
     @Test
