@@ -295,7 +295,7 @@ public final class ModeCountPlot {
         c.setBorderVisible(true);
         c.setBorderPaint(ChartStyle.FRAME);
         c.setPadding(new org.jfree.chart.ui.RectangleInsets(4, 4, 4, 8));
-        TextTitle t = new TextTitle("first " + shown + " modes", ChartStyle.NOTE);
+        TextTitle t = new TextTitle("close-up: the first " + inRange + " modes", ChartStyle.NOTE);
         t.setPaint(ChartStyle.MUTED);
         c.setTitle(t);
         // Centre in data coordinates of the count panel, whose vertical range is about [0, M].
