@@ -1,0 +1,120 @@
+package org.stillfield.sampler.io;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.io.RandomAccessFile;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.security.MessageDigest;
+import java.util.HexFormat;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.stillfield.sampler.spec.RunSpec;
+
+/** {@link Dataset#problems(Path)} finds damage; {@link Dataset#open(Path)} refuses the obvious kinds. */
+class DatasetProblemsTest {
+    @TempDir
+    Path dir;
+
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private Path written(String name) throws Exception {
+        RunSpec spec = TestRuns.spec(dir, TestRuns.yaml("float64", 4, 10)).withOutputFolder(dir.resolve(name));
+        TestRuns.write(spec);
+        assertEquals(List.of(), Dataset.problems(spec.outputFolder()), "fresh dataset");
+        return spec.outputFolder();
+    }
+
+    private static boolean mentions(List<String> problems, String... words) {
+        return problems.stream().anyMatch(p -> {
+            for (String w : words) {
+                if (!p.contains(w)) {
+                    return false;
+                }
+            }
+            return true;
+        });
+    }
+
+    @Test
+    void findsATruncatedFile() throws Exception {
+        Path folder = written("a");
+        Path f = folder.resolve(Layout.FIELDS);
+        long size = Files.size(f);
+        try (RandomAccessFile raf = new RandomAccessFile(f.toFile(), "rw")) {
+            raf.setLength(size - 10);
+        }
+        List<String> problems = Dataset.problems(folder);
+        assertTrue(mentions(problems, "fields.parquet", "bytes"), problems.toString());
+        assertTrue(mentions(problems, "fields.parquet", "SHA-256"), problems.toString());
+        assertTrue(mentions(problems, "fields.parquet", "Parquet"), problems.toString());
+        IOException ex = assertThrows(IOException.class, () -> Dataset.open(folder));
+        assertTrue(ex.getMessage().contains("fields.parquet"), ex.getMessage());
+    }
+
+    @Test
+    void findsAChangedByteOfTheSameSize() throws Exception {
+        Path folder = written("b");
+        Path f = folder.resolve(Layout.AMPLITUDES);
+        try (RandomAccessFile raf = new RandomAccessFile(f.toFile(), "rw")) {
+            raf.seek(Files.size(f) / 3);
+            int b = raf.read();
+            raf.seek(Files.size(f) / 3);
+            raf.write(b ^ 0x40);
+        }
+        List<String> problems = Dataset.problems(folder);
+        assertEquals(1, problems.size(), problems.toString());
+        assertTrue(mentions(problems, "amplitudes.parquet", "SHA-256"), problems.toString());
+    }
+
+    @Test
+    void findsMissingFilesAndWrongRowCounts() throws Exception {
+        Path folder = written("c");
+        Files.delete(folder.resolve(Layout.POINTS));
+        ObjectNode m = (ObjectNode) JSON.readTree(folder.resolve(Layout.MANIFEST).toFile());
+        ((ObjectNode) m.get("files").get(2)).put("rows", 7);
+        JSON.writeValue(folder.resolve(Layout.MANIFEST).toFile(), m);
+        List<String> problems = Dataset.problems(folder);
+        assertTrue(mentions(problems, "points.parquet is missing"), problems.toString());
+        assertTrue(mentions(problems, "amplitudes.parquet", "rows", "says 7"), problems.toString());
+        assertThrows(IOException.class, () -> Dataset.open(folder));
+
+        Files.delete(folder.resolve(Layout.MANIFEST));
+        assertEquals(1, Dataset.problems(folder).size());
+        assertThrows(IOException.class, () -> Dataset.open(folder));
+    }
+
+    @Test
+    void findsFootersThatDisagreeAboutTheSpec() throws Exception {
+        Path a = written("d");
+        // Same run, one comment added to the spec text: every table is the same except the footer.
+        RunSpec other = TestRuns.spec(dir, TestRuns.yaml("float64", 4, 10) + "# edited\n").withOutputFolder(dir.resolve("e"));
+        TestRuns.write(other);
+        Path modes = a.resolve(Layout.MODES);
+        Files.copy(other.outputFolder().resolve(Layout.MODES), modes, StandardCopyOption.REPLACE_EXISTING);
+        ObjectNode m = (ObjectNode) JSON.readTree(a.resolve(Layout.MANIFEST).toFile());
+        ObjectNode entry = (ObjectNode) m.get("files").get(0);
+        assertEquals(Layout.MODES, entry.get("name").asText());
+        entry.put("bytes", Files.size(modes));
+        entry.put("sha256", HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(modes))));
+        JSON.writeValue(a.resolve(Layout.MANIFEST).toFile(), m);
+        List<String> problems = Dataset.problems(a);
+        assertEquals(3, problems.size(), problems.toString());
+        assertTrue(problems.stream().allMatch(p -> p.contains("another spec")), problems.toString());
+    }
+
+    @Test
+    void ignoresFilesTheManifestDoesNotList() throws Exception {
+        Path folder = written("f");
+        Files.writeString(folder.resolve("README.txt"), "notes");
+        assertEquals(List.of(), Dataset.problems(folder));
+        assertEquals(10, Dataset.open(folder).samples());
+    }
+}
