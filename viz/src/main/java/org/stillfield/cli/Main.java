@@ -67,33 +67,32 @@ public final class Main implements Runnable {
             cl.setErr(err);
         }
         cl.setParameterExceptionHandler((ex, a) -> {
-            PrintWriter err = ex.getCommandLine().getErr();
-            err.println("stillfield: " + ex.getMessage());
-            err.println("  see: " + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help");
+            PrintWriter w = ex.getCommandLine().getErr();
+            w.println("stillfield: " + ex.getMessage() + " (see: " + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help)");
             return BAD_INPUT;
         });
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
-            PrintWriter err = c.getErr();
+            PrintWriter w = c.getErr();
             Throwable t = ex;
             while ((t instanceof UncheckedIOException || t instanceof java.util.concurrent.CompletionException
                 || t instanceof java.util.concurrent.ExecutionException) && t.getCause() != null) {
                 t = t.getCause();
             }
             if (t instanceof SpecException) {
-                err.println("stillfield: spec error: " + t.getMessage());
+                w.println("stillfield: spec error: " + t.getMessage());
                 return BAD_INPUT;
             }
             if (t instanceof IllegalArgumentException) {
-                err.println("stillfield: " + t.getMessage());
+                w.println("stillfield: " + t.getMessage());
                 return BAD_INPUT;
             }
             if (t instanceof IOException) {
-                err.println("stillfield: i/o error: " + t.getMessage());
+                w.println("stillfield: i/o error: " + t.getMessage());
                 return FAILED;
             }
-            err.println("stillfield: failed: " + t);
+            w.println("stillfield: failed: " + t);
             if (System.getenv("STILLFIELD_DEBUG") != null) {
-                t.printStackTrace(err);
+                t.printStackTrace(w);
             }
             return FAILED;
         });
