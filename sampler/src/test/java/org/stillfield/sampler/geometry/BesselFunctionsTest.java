@@ -65,7 +65,7 @@ class BesselFunctionsTest {
     void seriesAndRecurrenceBranchesAgreeWhereTheyMeet() {
         // Two different algorithms (series for x ≤ 1, Miller above) must join smoothly: across
         // δ = 1e-12 the value moves by δ·J_n' with J_n' = (J_{n−1} − J_{n+1})/2 (A&S 9.1.27) and
-        // j_n' = j_{n−1} − (n+1)j_n/x (A&S 10.1.22); the δ² remainder is 1e-24, so the tolerance is a few ulp.
+        // j_n' = j_{n−1} − (n+1)j_n/x (A&S 10.1.22); the δ² remainder is 1e-24, so the tolerance is the ~1e-15 rounding each branch accumulates (about 40 recurrence steps).
         double delta = 1e-12;
         double[] a = new double[3];
         double[] b = new double[3];
@@ -75,12 +75,12 @@ class BesselFunctionsTest {
             BesselFunctions.cylinder(n, 1.0, a);
             BesselFunctions.cylinder(n, 1.0 + delta, b);
             double predicted = a[1] + delta * 0.5 * (a[0] - a[2]);
-            assertEquals(predicted, b[1], 1e-15 * Math.abs(a[1]) + 1e-300, "cylinder n=" + n);
+            assertEquals(predicted, b[1], 4e-15 * Math.abs(a[1]) + 1e-300, "cylinder n=" + n);
             int ns = Math.max(n, 1);
             BesselFunctions.spherical(ns, 1.0, sa);
             BesselFunctions.spherical(ns, 1.0 + delta, sb);
             double predictedS = sa[1] + delta * (sa[0] - (ns + 1) * sa[3]);
-            assertEquals(predictedS, sb[1], 1e-15 * Math.abs(sa[1]) + 1e-300, "spherical n=" + ns);
+            assertEquals(predictedS, sb[1], 4e-15 * Math.abs(sa[1]) + 1e-300, "spherical n=" + ns);
         }
     }
 
