@@ -1,7 +1,5 @@
 package org.stillfield.sampler.geometry;
 
-import org.apache.commons.math3.special.Gamma;
-
 /**
  * Bessel functions of the first kind for the curved cavities: cylinder J_n(x) and spherical
  * j_n(x) of integer order n ≥ 0 and real argument x ≥ 0, each returned with its neighbours so
@@ -120,16 +118,13 @@ final class BesselFunctions {
         return lead * sum;
     }
 
-    /** h^n / n!, by logs for large n so that only the final result can underflow. */
+    /** h^n / n! for h ≤ ½: every factor h/k is below 1, so the product can only underflow, like the result. */
     private static double halfPowerOverFactorial(int n, double h) {
-        if (n <= 30) {
-            double v = 1.0;
-            for (int k = 1; k <= n; k++) {
-                v *= h / k;
-            }
-            return v;
+        double v = 1.0;
+        for (int k = 1; k <= n; k++) {
+            v *= h / k;
         }
-        return Math.exp(n * Math.log(h) - Gamma.logGamma(n + 1.0));
+        return v;
     }
 
     /**
@@ -240,18 +235,12 @@ final class BesselFunctions {
         return sum;
     }
 
-    /** x^n / (2n+1)!!, by logs for large n. */
+    /** x^n / (2n+1)!! for x ≤ 1: every factor is below 1, so the product can only underflow, like the result. */
     private static double powerOverDoubleFactorial(int n, double x) {
-        if (n <= 30) {
-            double v = 1.0;
-            for (int k = 1; k <= n; k++) {
-                v *= x / (2.0 * k + 1.0);
-            }
-            return v;
+        double v = 1.0;
+        for (int k = 1; k <= n; k++) {
+            v *= x / (2.0 * k + 1.0);
         }
-        // (2n+1)!! = (2n+1)! / (2^n n!)
-        double logDf = Gamma.logGamma(2.0 * n + 2.0) - n * Math.log(2.0)
-            - Gamma.logGamma(n + 1.0);
-        return Math.exp(n * Math.log(x) - logDf);
+        return v;
     }
 }
