@@ -2,13 +2,25 @@ package org.stillfield.sampler.geometry;
 
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.function.Consumer;
 import org.apache.commons.math3.analysis.integration.gauss.GaussIntegrator;
 import org.apache.commons.math3.analysis.integration.gauss.GaussIntegratorFactory;
 import org.stillfield.sampler.api.Cavity;
+import org.stillfield.sampler.api.EnsembleSink;
+import org.stillfield.sampler.api.Field;
 import org.stillfield.sampler.api.Mode;
 import org.stillfield.sampler.api.ModeFunctions;
+import org.stillfield.sampler.api.ModeTable;
+import org.stillfield.sampler.api.SampleBatch;
+import org.stillfield.sampler.api.Vec3;
+import org.stillfield.sampler.engine.EnsembleRunner;
+import org.stillfield.sampler.spec.RunSpec;
+import org.stillfield.sampler.spec.SpecException;
+import org.stillfield.sampler.spec.SpecReader;
 
 /**
  * Checks shared by the curved- and periodic-cavity tests: finite-difference derivatives of the
@@ -171,5 +183,69 @@ final class ModeFieldChecks {
                     + ", " + h[j + 2] + ")");
             }
         }
+    }
+
+    /** Field values the pipeline produced: per field, per sample, [3p + i]. */
+    record PipelineResult(RunSpec spec, List<Vec3> points, java.util.Map<Field, List<double[]>> values) {
+    }
+
+    /**
+     * Parses a YAML spec and runs the engine end to end into an in-memory sink.
+     *
+     * @param yaml spec text
+     * @return what the sink received
+     */
+    static PipelineResult runPipeline(String yaml) throws SpecException, IOException {
+        RunSpec spec = SpecReader.parse(yaml, Path.of("."), "test");
+        ModeTable table = ModeTable.of(spec.cavity(), spec.window(), spec.state(), spec.maxModes());
+        List<Vec3> points = spec.allPoints();
+        java.util.Map<Field, List<double[]>> values = new java.util.EnumMap<>(Field.class);
+        EnsembleSink sink = new EnsembleSink() {
+            @Override
+            public void accept(SampleBatch batch) {
+                for (Field f : batch.fields()) {
+                    for (int s = 0; s < batch.size(); s++) {
+                        values.computeIfAbsent(f, x -> new ArrayList<>()).add(batch.values(f, s).clone());
+                    }
+                }
+            }
+        };
+        EnsembleRunner.run(new EnsembleRunner.Plan(table, points, spec.fields(), spec.seed(), 0, spec.samples(),
+            spec.threads()), sink, null);
+        return new PipelineResult(spec, points, values);
+    }
+
+    /** Asserts every value is finite at points inside the cavity and NaN outside, and that both kinds occur. */
+    static void assertMaskedInsideFinite(PipelineResult r) {
+        Cavity cavity = r.spec().cavity();
+        int inside = 0;
+        int outside = 0;
+        for (int p = 0; p < r.points().size(); p++) {
+            if (cavity.contains(r.points().get(p))) {
+                inside++;
+            } else {
+                outside++;
+            }
+        }
+        assertTrue(inside > 0 && outside > 0, "the spec should put points both inside and outside: " + inside + "/" + outside);
+        assertTrue(!r.values().isEmpty(), "no field values received");
+        double largest = 0;
+        for (java.util.Map.Entry<Field, List<double[]>> e : r.values().entrySet()) {
+            assertTrue(e.getValue().size() == r.spec().samples(), "samples received for " + e.getKey() + ": " + e.getValue().size());
+            for (double[] v : e.getValue()) {
+                for (int p = 0; p < r.points().size(); p++) {
+                    boolean in = cavity.contains(r.points().get(p));
+                    for (int i = 0; i < 3; i++) {
+                        double x = v[3 * p + i];
+                        assertTrue(in ? Double.isFinite(x) : Double.isNaN(x), e.getKey() + " component " + i + " at point " + p
+                            + " " + r.points().get(p) + (in ? " (inside)" : " (outside)") + " = " + x);
+                        if (in) {
+                            largest = Math.max(largest, Math.abs(x));
+                        }
+                    }
+                }
+            }
+        }
+        assertTrue(largest > 0, "all field values inside are zero");
     }
 }
