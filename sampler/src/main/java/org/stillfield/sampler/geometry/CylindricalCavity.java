@@ -110,8 +110,10 @@ public final class CylindricalCavity implements Cavity {
      * (TE, p ≥ 1, constant mode excluded) modes times axial ones; inserting the disk's smooth
      * counts Aγ²/(4π) ∓ Lγ/(4π) + 1/6 (Weyl plus the curvature constant, McKean &amp; Singer 1967,
      * source from memory) and the axial counts (d/π)q ± 1/2 gives these terms. The same
-     * computation for a rectangle reproduces the box's −(a+b+d)k/(2π) + 1/2 exactly. The
-     * residual bound used in the tests is empirical.
+     * computation for a rectangle reproduces the box's −(a+b+d)k/(2π) + 1/2 exactly. The O(k)
+     * terms read as the two rims' edge term −(4πR)k/(8π) (the box's coefficient per edge length)
+     * and the side wall's curvature term −(k/(3π²))∫(κ1 + κ2) dS = −2dk/(3π). The residual bound
+     * used in the tests is empirical.
      */
     @Override
     public double weylCount(double k) {

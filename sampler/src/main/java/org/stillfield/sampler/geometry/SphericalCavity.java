@@ -100,13 +100,17 @@ public final class SphericalCavity implements Cavity {
     }
 
     /**
-     * Leading Weyl term Vk³/(3π²) only. For a smooth PEC boundary the surface (k²) term cancels
-     * between the two polarisations (Balian &amp; Bloch 1971, source from memory); the next, O(k),
-     * term is not used. The residual the tests accept is bounded empirically.
+     * N(k) ≈ Vk³/(3π²) − (8/(3π)) kR, derived here. For a smooth PEC wall the k² surface term
+     * cancels between the polarisations, and the O(k) term is local and linear in the principal
+     * curvatures, −(k/(3π²))∫(κ1 + κ2) dS (cf. Balian &amp; Bloch, Ann. Phys. 64, 271 (1971), source
+     * from memory). The coefficient is the one the cylinder's exact separable count gives for its
+     * side wall (see {@link CylindricalCavity#weylCount}); for the sphere ∫(κ1 + κ2) dS = 8πR.
+     * The residual bound the tests accept is empirical.
      */
     @Override
     public double weylCount(double k) {
-        return volume() * k * k * k / (3 * Math.PI * Math.PI);
+        double x = k * radius;
+        return Math.max(0.0, volume() * k * k * k / (3 * Math.PI * Math.PI) - 8 * x / (3 * Math.PI));
     }
 
     @Override
