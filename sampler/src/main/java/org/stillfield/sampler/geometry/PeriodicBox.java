@@ -95,10 +95,13 @@ public final class PeriodicBox implements Cavity {
         return r.x() >= 0 && r.x() <= lx && r.y() >= 0 && r.y() <= ly && r.z() >= 0 && r.z() <= lz;
     }
 
-    /** Vk³/(3π²): twice the lattice points per volume (2π)³/V in the ball, no wall corrections. */
+    /**
+     * Vk³/(3π²) − 2: the modes are two polarisations per reciprocal-lattice point 0 &lt; |k| ≤ k, the
+     * lattice has one point per (2π)³/V, and the excluded k = 0 takes away two. No wall terms.
+     */
     @Override
     public double weylCount(double k) {
-        return volume() * k * k * k / (3 * Math.PI * Math.PI);
+        return Math.max(0.0, volume() * k * k * k / (3 * Math.PI * Math.PI) - 2.0);
     }
 
     @Override
