@@ -222,6 +222,7 @@ public final class CylindricalCavity implements Cavity {
             Map<Long, Integer> radialIndex = new HashMap<>();
             List<Integer> orders = new ArrayList<>();
             List<Double> gammas = new ArrayList<>();
+            List<Double> areas = new ArrayList<>();
             int nm = 0;
             int pm = 0;
             double v = volume();
@@ -240,16 +241,17 @@ public final class CylindricalCavity implements Cavity {
                     radialIndex.put(rk, r);
                     orders.add(n);
                     gammas.add(gamma);
+                    double[] t = new double[3];
+                    BesselFunctions.cylinder(n, x, t);
+                    double angular = n == 0 ? 2 * Math.PI : Math.PI;
+                    double radialIntegral = isTm
+                        ? 0.5 * radius * radius * t[2] * t[2]
+                        : 0.5 * radius * radius * (1 - (double) n * n / (x * x)) * t[1] * t[1];
+                    areas.add(angular * radialIntegral);
                 }
                 double beta = p * Math.PI / length;
                 double k = Math.sqrt(gamma * gamma + beta * beta);
-                double[] t = new double[3];
-                BesselFunctions.cylinder(n, x, t);
-                double angular = n == 0 ? 2 * Math.PI : Math.PI;
-                double radialIntegral = isTm
-                    ? 0.5 * radius * radius * t[2] * t[2]
-                    : 0.5 * radius * radius * (1 - (double) n * n / (x * x)) * t[1] * t[1];
-                double area = angular * radialIntegral;
+                double area = areas.get(r);
                 double axialLength = p == 0 ? length : 0.5 * length;
                 radialOf[q] = r;
                 axial[q] = p;

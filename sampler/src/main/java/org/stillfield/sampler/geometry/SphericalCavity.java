@@ -192,6 +192,7 @@ public final class SphericalCavity implements Cavity {
             Map<Long, Integer> radialIndex = new HashMap<>();
             List<Integer> orders = new ArrayList<>();
             List<Double> ks = new ArrayList<>();
+            List<Double> amps = new ArrayList<>();
             int nm = 0;
             double[] t = new double[4];
             for (int q = 0; q < count; q++) {
@@ -207,13 +208,14 @@ public final class SphericalCavity implements Cavity {
                     radialIndex.put(rk, r);
                     orders.add(n);
                     ks.add(x / radius);
+                    BesselFunctions.spherical(n, x, t);
+                    double radial = isTm ? t[1] * t[1] - t[0] * t[2] : t[2] * t[2];
+                    amps.add(Math.sqrt(8 * Math.PI / (3.0 * n * (n + 1) * radial)));
                 }
-                BesselFunctions.spherical(n, x, t);
-                double radial = isTm ? t[1] * t[1] - t[0] * t[2] : t[2] * t[2];
                 radialOf[q] = r;
                 angularOf[q] = n * n - 1 + mode.orientation();
                 tm[q] = isTm;
-                amp[q] = Math.sqrt(8 * Math.PI / (3.0 * n * (n + 1) * radial));
+                amp[q] = amps.get(r);
                 nm = Math.max(nm, n);
             }
             radialOrder = new int[orders.size()];
