@@ -5,7 +5,8 @@ package org.stillfield.sampler.geometry;
  * j_n(x) of integer order n ≥ 0 and real argument x ≥ 0, each returned with its neighbours so
  * that derivatives and the axis/centre limits need no division by x.
  *
- * <p>Method: Miller's backward recurrence (Abramowitz &amp; Stegun 9.12 and 10.5; the normalising
+ * <p>Method: Miller's backward recurrence (Abramowitz &amp; Stegun §9.12; equation numbers here
+ * are from memory, the values are checked in the tests against Commons Math; the normalising
  * sums are A&amp;S 9.1.76, J_0² + 2ΣJ_k² = 1, and A&amp;S 10.1.50, Σ(2k+1)j_k² = 1). Squares are
  * used because their sum has no cancellation; the sign comes from J_0 + 2ΣJ_{2k} = 1 (A&amp;S 9.1.46)
  * or from the closed forms of j_0, j_1 (A&amp;S 10.1.11). The recurrence starts above both n and the

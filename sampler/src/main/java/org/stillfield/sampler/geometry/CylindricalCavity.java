@@ -32,8 +32,7 @@ import org.stillfield.sampler.api.Vec3;
  * 1/ρ anywhere, so the axis needs no special case. h = (1/k)∇×u in both families.
  *
  * <p>Normalisation ∫u·u = V from ∫_0^R J_n(γρ)²ρdρ = (R²/2)[J_n′(γR)² + (1 − n²/(γR)²)J_n(γR)²]
- * (Lommel's integral, e.g. A&amp;S 11.4.5 / Jackson §8.7, source from memory; verified by
- * quadrature in the tests) and ∫|∇_tψ|² = γ²∫ψ² (Green's identity; the wall term vanishes for
+ * (Lommel's integral, source from memory; verified by quadrature in the tests) and ∫|∇_tψ|² = γ²∫ψ² (Green's identity; the wall term vanishes for
  * both boundary conditions): A = √(V/(P d_p)) with P = ∫ψ² dA and d_p = d for p = 0, d/2 otherwise.
  *
  * <p>Labels: (family, n, m, p), orientation 0 = cos nφ, 1 = sin nφ (n ≥ 1 only).

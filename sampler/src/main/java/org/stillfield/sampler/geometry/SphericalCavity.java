@@ -29,8 +29,7 @@ import org.stillfield.sampler.api.Vec3;
  *
  * <p>Normalisation, from ∫|T × ê|² dΩ = ∫|∇_Ω Y|² dΩ = n(n+1) and
  * ∫_0^R j_n(ks)² s² ds = (R³/2)[j_n² − j_{n−1}j_{n+1}](kR) (the spherical form of Lommel's
- * integral, from A&amp;S 11.3.29 with j_n = √(π/2x) J_{n+½}; source from memory, verified by
- * quadrature in the tests); for TM ∫|N|² = ∫|M|² because the wall term of Green's identity
+ * integral with j_n = √(π/2x) J_{n+½}; source from memory, verified by quadrature in the tests); for TM ∫|N|² = ∫|M|² because the wall term of Green's identity
  * vanishes with the tangential N:
  * <pre>
  *   TE: A² = 8π / (3 n(n+1) j_{n+1}(kR)²),   TM: A² = 8π / (3 n(n+1) [j_n² − j_{n−1}j_{n+1}](kR)).

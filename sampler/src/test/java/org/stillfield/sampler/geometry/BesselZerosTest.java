@@ -81,7 +81,7 @@ class BesselZerosTest {
 
     @Test
     void zerosInterlaceAsTheTheoremRequires() {
-        // DLMF 10.21.2–10.21.3 (source from memory): n ≤ j'_{n,1} < j_{n,1} < j'_{n,2} < j_{n,2} < …
+        // DLMF §10.21(i) (source from memory): n ≤ j'_{n,1} < j_{n,1} < j'_{n,2} < j_{n,2} < …
         // and j_{n,s} < j_{n+1,s} < j_{n,s+1}. A missed or doubled zero breaks one of these.
         int count = 25;
         for (int n = 1; n <= 40; n++) {
