@@ -5,7 +5,10 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.stillfield.sampler.api.Cavity;
 import org.stillfield.sampler.api.Medium;
+import org.stillfield.sampler.geometry.CylindricalCavity;
+import org.stillfield.sampler.geometry.PeriodicBox;
 import org.stillfield.sampler.geometry.RectangularCavity;
+import org.stillfield.sampler.geometry.SphericalCavity;
 
 /**
  * The registry of cavity shapes a spec may name. Adding a geometry means adding one reader
@@ -33,6 +36,13 @@ public final class Geometries {
         SHAPES.put("box", new Entry(List.of("a_m", "b_m", "d_m"),
             (n, m) -> RectangularCavity.of(n.positive("a_m", "metres"), n.positive("b_m", "metres"),
                 n.positive("d_m", "metres"), m)));
+        SHAPES.put("cylinder", new Entry(List.of("radius_m", "length_m"),
+            (n, m) -> CylindricalCavity.of(n.positive("radius_m", "metres"), n.positive("length_m", "metres"), m)));
+        SHAPES.put("sphere", new Entry(List.of("radius_m"),
+            (n, m) -> SphericalCavity.of(n.positive("radius_m", "metres"), m)));
+        SHAPES.put("periodic", new Entry(List.of("lx_m", "ly_m", "lz_m"),
+            (n, m) -> PeriodicBox.of(n.positive("lx_m", "metres"), n.positive("ly_m", "metres"),
+                n.positive("lz_m", "metres"), m)));
     }
 
     private Geometries() {
