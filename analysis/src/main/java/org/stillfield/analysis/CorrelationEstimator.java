@@ -1,9 +1,12 @@
 package org.stillfield.analysis;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.EnumSet;
+import java.util.HashMap;
 import java.util.LinkedHashSet;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
 import java.util.Set;
@@ -91,8 +94,10 @@ public final class CorrelationEstimator implements EnsembleSink {
         double[] part = new double[9];
         for (int fi = 0; fi < fields.length; fi++) {
             Field f = fields[fi];
+            double[][] rows = new double[n][];
             for (int s = 0; s < n; s++) {
-                int len = batch.values(f, s).length;
+                rows[s] = batch.values(f, s);
+                int len = rows[s].length;
                 if (len != 3 * pointCount) {
                     throw new IllegalArgumentException(String.format(
                         "batch values of %s must hold 3 x %d points: %d in sample %d", f, pointCount, len,
@@ -102,9 +107,9 @@ public final class CorrelationEstimator implements EnsembleSink {
             for (int k = 0; k < pairs.size(); k++) {
                 int p = 3 * pairs.get(k).first();
                 int q = 3 * pairs.get(k).second();
-                java.util.Arrays.fill(part, 0.0);
+                Arrays.fill(part, 0.0);
                 for (int s = 0; s < n; s++) {
-                    double[] v = batch.values(f, s);
+                    double[] v = rows[s];
                     for (int i = 0; i < 3; i++) {
                         double a = v[p + i];
                         part[3 * i] += a * v[q];
@@ -201,7 +206,7 @@ public final class CorrelationEstimator implements EnsembleSink {
         if (outside > 0) {
             warnings.add(outside + " pairs with a point outside the cavity were left out of the table");
         }
-        Map<Integer, Integer> diagIndex = new java.util.HashMap<>();
+        Map<Integer, Integer> diagIndex = new HashMap<>();
         List<RunSpec.PointPair> all = new ArrayList<>(keptPairs);
         for (int p : diag) {
             diagIndex.put(p, all.size());
@@ -262,7 +267,7 @@ public final class CorrelationEstimator implements EnsembleSink {
         }
         double threshold = tested == 0 ? 0.0 : criticalZ(falseAlarm, tested);
         boolean passed = worst <= threshold && inconsistent == 0;
-        String method = String.format(java.util.Locale.ROOT,
+        String method = String.format(Locale.ROOT,
             "Bonferroni over %d rows: |z| <= %.4f = Phi^-1(1 - alpha/(2K)), alpha = %.3g, two-sided normal;"
                 + " %d zero-variance rows not tested%s", tested, threshold, falseAlarm, zeroRows,
             inconsistent > 0 ? ", " + inconsistent + " of them with a nonzero estimate (fail)" : "");

@@ -29,8 +29,11 @@ import org.stillfield.sampler.geometry.RectangularCavity;
  * direct term. Every image contributes at most (ħc/π²ε0)/|D|⁴ to any tensor element (its
  * eigenvalues are 1/s² and (a² − D²)/s³, both ≤ 1/D⁴ in magnitude), so the sum of 1/|D|⁴ over
  * the images bounds the wall error. At the centre of a cube the images sit at L·m, m ∈ Z³∖{0}, and
- * the bound is (a/L)⁴ Σ|m|⁻⁴ = 16.53 (a/L)⁴ = 4.3e-4 of C(0) (the signed first shell, six faces
- * + twelve edges + eight corners, gives ≈ 4.7 (a/L)⁴ = 1.2e-4, what the sum shows). The dropped
+ * the bound is (a/L)⁴ Σ|m|⁻⁴ = 16.53 (a/L)⁴ = 4.3e-4 of C(0). The signed sum is smaller: each
+ * face adds (a/L)⁴ to every diagonal element (one wall's per-component excess ħc/(16π²ε0z⁴) at
+ * z = L/2, over ħc/(π²ε0a⁴)), so the three wall pairs give 6(a/L)⁴; the twelve edges add −(a/L)⁴
+ * and the eight corners −(8/27)(a/L)⁴, so the first shell gives 4.7(a/L)⁴ = 1.22e-4, which is
+ * what the mode sum shows (1.217e-4 after the truncation correction). The dropped
  * modes add a non-negative amount ≤ 8 × (their box average), since |u_l|² ≤ N² = 8 pointwise while
  * its box average is 1: at most 24ν C(0) = 4e-5 of C(0) to a trace, or 8ν C(0) to one element.
  */
