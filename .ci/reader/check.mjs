@@ -33,7 +33,7 @@ for (const f of manifest.files.filter((f) => f.name.endsWith('.parquet'))) {
 
 const table = JSON.parse(readFileSync(join(dir, 'analysis', 'correlations.json'), 'utf8'));
 const rows = table.rows ?? table.correlations ?? [];
-const row = rows.find((r) => r.first === r.second && r.i === 0 && r.j === 0);
+const row = rows.find((r) => r.first === r.second && r.i === 'x' && r.j === 'x' && r.status !== 'zero_variance');
 if (!row) {
   fail('no diagonal xx row in analysis/correlations.json');
 } else {
@@ -43,5 +43,5 @@ if (!row) {
   if (!(rel < 1e-9)) fail(`mean of ${col}^2 at point ${row.first}: DuckDB ${m}, tool ${row.estimate} (rel. diff ${rel})`);
   else console.log(`DuckDB mean of ${col}^2 at point ${row.first} = ${m} agrees with the tool's estimate (rel. diff ${rel.toExponential(2)})`);
 }
-console.log(`${manifest.files.length - failures >= 0 ? '' : ''}independent reader: ${failures === 0 ? 'all checks passed' : failures + ' check(s) failed'}`);
+console.log(`independent reader: ${failures === 0 ? 'all checks passed' : failures + ' check(s) failed'}`);
 process.exit(failures === 0 ? 0 : 1);
