@@ -30,6 +30,7 @@ import org.stillfield.sampler.api.ModeTable;
 import org.stillfield.sampler.api.PointSet;
 import org.stillfield.sampler.api.SampleBatch;
 import org.stillfield.sampler.api.Vec3;
+import org.stillfield.sampler.api.Version;
 import org.stillfield.sampler.spec.RunSpec;
 
 /**
@@ -419,7 +420,7 @@ public final class DatasetWriter implements EnsembleSink {
             writeManifest();
             publish();
             state = State.FINISHED;
-        } catch (IOException | RuntimeException ex) {
+        } catch (IOException | RuntimeException | Error ex) {
             state = State.FAILED;
             throw ex;
         }
@@ -427,8 +428,8 @@ public final class DatasetWriter implements EnsembleSink {
 
     private void writeManifest() throws IOException {
         ObjectNode m = Layout.JSON.createObjectNode();
-        m.put("format", org.stillfield.sampler.api.Version.DATASET_FORMAT);
-        m.put("version", org.stillfield.sampler.api.Version.VERSION);
+        m.put("format", Version.DATASET_FORMAT);
+        m.put("version", Version.VERSION);
         m.put("name", spec.name());
         m.put("seed", spec.seed());
         m.put("samples", spec.samples());
@@ -512,7 +513,6 @@ public final class DatasetWriter implements EnsembleSink {
         }
         state = State.CLOSED;
         helper.shutdown();
-        IOException first = null;
         for (RowWriter w : writers.values()) {
             try {
                 w.close();
@@ -520,14 +520,7 @@ public final class DatasetWriter implements EnsembleSink {
                 // The run already failed; its half-written files are deleted below.
             }
         }
-        try {
-            deleteTree(staging);
-        } catch (IOException ex) {
-            first = ex;
-        }
-        if (first != null) {
-            throw first;
-        }
+        deleteTree(staging);
     }
 
     /** @return the folder the dataset is renamed to by {@link #finish()} */
