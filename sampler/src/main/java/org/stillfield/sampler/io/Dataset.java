@@ -76,7 +76,11 @@ public final class Dataset {
         }
         Map<String, Long> bytes = new LinkedHashMap<>();
         for (JsonNode e : manifest.path("files")) {
-            bytes.put(text(e, "name"), number(e, "bytes"));
+            String file = text(e, "name");
+            if (!isPlainName(folder, file)) {
+                throw new IOException("manifest.json in " + folder + " lists a file outside the folder: '" + file + "'");
+            }
+            bytes.put(file, number(e, "bytes"));
         }
         for (String required : Layout.FILES) {
             if (!bytes.containsKey(required)) {
@@ -209,7 +213,16 @@ public final class Dataset {
     }
 
     private boolean listed(String fileName) {
-        return listedBytes == null ? Layout.FILES.contains(fileName) : listedBytes.containsKey(fileName);
+        return listedBytes.containsKey(fileName);
+    }
+
+    /** A manifest may only name files directly inside its own folder. */
+    private static boolean isPlainName(Path dir, String name) {
+        if (name.isEmpty()) {
+            return false;
+        }
+        Path p = dir.resolve(name).normalize();
+        return dir.equals(p.getParent());
     }
 
     private static Map<String, String> readFooter(Path file) throws IOException {
@@ -394,7 +407,7 @@ public final class Dataset {
             String name = e.getKey();
             JsonNode entry = e.getValue();
             Path p = dir.resolve(name);
-            if (name.isEmpty() || !p.normalize().getParent().equals(dir)) {
+            if (!isPlainName(dir, name)) {
                 out.add(Layout.MANIFEST + " lists an invalid file name '" + name + "'");
                 continue;
             }

@@ -18,6 +18,10 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 import java.util.concurrent.atomic.AtomicLong;
 import org.stillfield.sampler.api.EnsembleSink;
 import org.stillfield.sampler.api.Field;
@@ -26,6 +30,7 @@ import org.stillfield.sampler.api.ModeTable;
 import org.stillfield.sampler.api.PointSet;
 import org.stillfield.sampler.api.SampleBatch;
 import org.stillfield.sampler.api.Vec3;
+import org.stillfield.sampler.api.Version;
 import org.stillfield.sampler.spec.RunSpec;
 
 /**
@@ -43,8 +48,9 @@ import org.stillfield.sampler.spec.RunSpec;
  * deletes the staging folder, so an interrupted or failed run leaves nothing that looks complete.
  *
  * <p>Batches are streamed straight into the Parquet writers; memory is bounded by one row group
- * per file (64 MiB), not by the sample count. Samples must arrive in order from 0 to
- * {@code spec.samples() - 1}.
+ * per file (64 MiB), not by the sample count. Within {@link #accept} the amplitude table is
+ * written on a helper thread while the caller writes the field table; both are done when it
+ * returns. Samples must arrive in order from 0 to {@code spec.samples() - 1}.
  */
 public final class DatasetWriter implements EnsembleSink {
     /** Target size of a row group of the large tables, bytes. */
@@ -68,6 +74,11 @@ public final class DatasetWriter implements EnsembleSink {
     private final RowWriter fieldValues;
     private final AmplitudeRow amplitudeRow = new AmplitudeRow();
     private final FieldRow fieldRow;
+    private final ExecutorService helper = Executors.newSingleThreadExecutor(r -> {
+        Thread t = new Thread(r, "stillfield-dataset-writer");
+        t.setDaemon(true);
+        return t;
+    });
     private long nextSample;
     private State state = State.OPEN;
 
@@ -265,49 +276,125 @@ public final class DatasetWriter implements EnsembleSink {
     public void accept(SampleBatch batch) throws IOException {
         requireOpen();
         try {
-            if (batch.firstSample() != nextSample) {
-                throw new IllegalStateException("batch starts at sample " + batch.firstSample() + ", expected " + nextSample);
-            }
-            if (nextSample + batch.size() > spec.samples()) {
-                throw new IllegalStateException("batch ends at sample " + (nextSample + batch.size() - 1)
-                    + ", beyond samples = " + spec.samples());
-            }
-            for (int s = 0; s < batch.size(); s++) {
-                long sample = nextSample + s;
-                double[] q = batch.q(s);
-                double[] e = batch.e(s);
-                if (q.length != modeCount || e.length != modeCount) {
-                    throw new IllegalStateException("sample " + sample + " has " + q.length + " q and " + e.length
-                        + " e amplitudes, the mode table has " + modeCount);
+            check(batch);
+            if (pointCount == 0) {
+                writeAmplitudes(batch);
+            } else {
+                // The two tables are independent: write them on two threads. Both finish before
+                // accept returns, so the shared batch arrays are never read afterwards.
+                Future<Void> amp = helper.submit(() -> {
+                    writeAmplitudes(batch);
+                    return null;
+                });
+                Exception failure = null;
+                try {
+                    writeFields(batch);
+                } catch (IOException | RuntimeException ex) {
+                    failure = ex;
                 }
-                amplitudeRow.sample = sample;
-                amplitudeRow.q = q;
-                amplitudeRow.e = e;
-                for (int l = 0; l < modeCount; l++) {
-                    amplitudeRow.mode = l;
-                    amplitudes.write(amplitudeRow);
-                }
-                if (pointCount == 0) {
-                    continue;
-                }
-                for (int f = 0; f < fields.size(); f++) {
-                    double[] v = batch.values(fields.get(f), s);
-                    if (v.length != 3 * pointCount) {
-                        throw new IllegalStateException("sample " + sample + " has " + v.length + " " + fields.get(f)
-                            + " values, expected 3 x " + pointCount + " points");
+                try {
+                    await(amp);
+                } catch (IOException | RuntimeException ex) {
+                    if (failure == null) {
+                        failure = ex;
+                    } else {
+                        failure.addSuppressed(ex);
                     }
-                    fieldRow.values[f] = v;
                 }
-                fieldRow.sample = sample;
-                for (int p = 0; p < pointCount; p++) {
-                    fieldRow.point = p;
-                    fieldValues.write(fieldRow);
+                if (failure instanceof IOException) {
+                    throw (IOException) failure;
+                }
+                if (failure != null) {
+                    throw (RuntimeException) failure;
                 }
             }
             nextSample += batch.size();
-        } catch (IOException | RuntimeException ex) {
+        } catch (IOException | RuntimeException | Error ex) {
             state = State.FAILED;
             throw ex;
+        }
+    }
+
+    private void check(SampleBatch batch) {
+        if (batch.firstSample() != nextSample) {
+            throw new IllegalStateException("batch starts at sample " + batch.firstSample() + ", expected " + nextSample);
+        }
+        if (nextSample + batch.size() > spec.samples()) {
+            throw new IllegalStateException("batch ends at sample " + (nextSample + batch.size() - 1)
+                + ", beyond samples = " + spec.samples());
+        }
+        for (int s = 0; s < batch.size(); s++) {
+            long sample = nextSample + s;
+            if (batch.q(s).length != modeCount || batch.e(s).length != modeCount) {
+                throw new IllegalStateException("sample " + sample + " has " + batch.q(s).length + " q and "
+                    + batch.e(s).length + " e amplitudes, the mode table has " + modeCount);
+            }
+            if (pointCount == 0) {
+                continue;
+            }
+            for (Field f : fields) {
+                int n = batch.values(f, s).length;
+                if (n != 3 * pointCount) {
+                    throw new IllegalStateException("sample " + sample + " has " + n + " " + f + " values, expected 3 x "
+                        + pointCount + " points");
+                }
+            }
+        }
+    }
+
+    private void writeAmplitudes(SampleBatch batch) throws IOException {
+        for (int s = 0; s < batch.size(); s++) {
+            amplitudeRow.sample = nextSample + s;
+            amplitudeRow.q = batch.q(s);
+            amplitudeRow.e = batch.e(s);
+            for (int l = 0; l < modeCount; l++) {
+                amplitudeRow.mode = l;
+                amplitudes.write(amplitudeRow);
+            }
+        }
+    }
+
+    private void writeFields(SampleBatch batch) throws IOException {
+        for (int s = 0; s < batch.size(); s++) {
+            for (int f = 0; f < fields.size(); f++) {
+                fieldRow.values[f] = batch.values(fields.get(f), s);
+            }
+            fieldRow.sample = nextSample + s;
+            for (int p = 0; p < pointCount; p++) {
+                fieldRow.point = p;
+                fieldValues.write(fieldRow);
+            }
+        }
+    }
+
+    /** Waits for the helper even when interrupted: returning early would let it race with close(). */
+    private static void await(Future<Void> task) throws IOException {
+        boolean interrupted = false;
+        try {
+            while (true) {
+                try {
+                    task.get();
+                    return;
+                } catch (InterruptedException ex) {
+                    interrupted = true;
+                } catch (ExecutionException ex) {
+                    Throwable cause = ex.getCause();
+                    if (cause instanceof IOException) {
+                        throw (IOException) cause;
+                    }
+                    if (cause instanceof RuntimeException) {
+                        throw (RuntimeException) cause;
+                    }
+                    if (cause instanceof Error) {
+                        throw (Error) cause;
+                    }
+                    throw new IOException("amplitude writer failed", cause);
+                }
+            }
+        } finally {
+            if (interrupted) {
+                Thread.currentThread().interrupt();
+            }
         }
     }
 
@@ -326,13 +413,14 @@ public final class DatasetWriter implements EnsembleSink {
                 throw new IllegalStateException("dataset received " + nextSample + " samples, the spec asks for samples = "
                     + spec.samples());
             }
+            helper.shutdown();
             for (RowWriter w : writers.values()) {
                 w.close();
             }
             writeManifest();
             publish();
             state = State.FINISHED;
-        } catch (IOException | RuntimeException ex) {
+        } catch (IOException | RuntimeException | Error ex) {
             state = State.FAILED;
             throw ex;
         }
@@ -340,8 +428,8 @@ public final class DatasetWriter implements EnsembleSink {
 
     private void writeManifest() throws IOException {
         ObjectNode m = Layout.JSON.createObjectNode();
-        m.put("format", org.stillfield.sampler.api.Version.DATASET_FORMAT);
-        m.put("version", org.stillfield.sampler.api.Version.VERSION);
+        m.put("format", Version.DATASET_FORMAT);
+        m.put("version", Version.VERSION);
         m.put("name", spec.name());
         m.put("seed", spec.seed());
         m.put("samples", spec.samples());
@@ -420,10 +508,11 @@ public final class DatasetWriter implements EnsembleSink {
     public void close() throws IOException {
         if (state == State.FINISHED || state == State.CLOSED) {
             state = State.CLOSED;
+            helper.shutdown();
             return;
         }
         state = State.CLOSED;
-        IOException first = null;
+        helper.shutdown();
         for (RowWriter w : writers.values()) {
             try {
                 w.close();
@@ -431,14 +520,7 @@ public final class DatasetWriter implements EnsembleSink {
                 // The run already failed; its half-written files are deleted below.
             }
         }
-        try {
-            deleteTree(staging);
-        } catch (IOException ex) {
-            first = ex;
-        }
-        if (first != null) {
-            throw first;
-        }
+        deleteTree(staging);
     }
 
     /** @return the folder the dataset is renamed to by {@link #finish()} */

@@ -111,6 +111,20 @@ class DatasetProblemsTest {
     }
 
     @Test
+    void refusesManifestEntriesOutsideTheFolder() throws Exception {
+        Path folder = written("g");
+        ObjectNode m = (ObjectNode) JSON.readTree(folder.resolve(Layout.MANIFEST).toFile());
+        ((com.fasterxml.jackson.databind.node.ArrayNode) m.get("files")).addObject().put("name", "../a/manifest.json")
+            .put("rows", 0).put("bytes", 1).put("sha256", "0");
+        JSON.writeValue(folder.resolve(Layout.MANIFEST).toFile(), m);
+        IOException ex = assertThrows(IOException.class, () -> Dataset.open(folder));
+        assertTrue(ex.getMessage().contains("outside the folder"), ex.getMessage());
+        List<String> problems = Dataset.problems(folder);
+        assertEquals(1, problems.size(), problems.toString());
+        assertTrue(mentions(problems, "invalid file name"), problems.toString());
+    }
+
+    @Test
     void ignoresFilesTheManifestDoesNotList() throws Exception {
         Path folder = written("f");
         Files.writeString(folder.resolve("README.txt"), "notes");

@@ -222,6 +222,21 @@ class DatasetRoundTripTest {
     }
 
     @Test
+    void aRunWithoutPointsStoresAmplitudesOnly() throws Exception {
+        String yaml = TestRuns.yaml("float64", 6, 9);
+        yaml = yaml.substring(0, yaml.indexOf("evaluate:")) + yaml.substring(yaml.indexOf("output:"));
+        RunSpec spec = TestRuns.spec(dir, yaml);
+        assertEquals(0, spec.allPoints().size());
+        TestRuns.Recorder written = TestRuns.write(spec);
+        Dataset d = Dataset.open(spec.outputFolder());
+        assertEquals(0, d.pointCount());
+        TestRuns.Recorder read = TestRuns.replay(d, 4);
+        assertSameAmplitudes(written, read);
+        assertEquals(0, d.sample(8, Field.E).length);
+        assertEquals(List.of(), Dataset.problems(spec.outputFolder()));
+    }
+
+    @Test
     void readerRejectsBadArguments() throws Exception {
         RunSpec spec = TestRuns.spec(dir, TestRuns.yaml("float64", 1, 3).replace("fields: [A, E, B]", "fields: [E]"));
         TestRuns.write(spec);
