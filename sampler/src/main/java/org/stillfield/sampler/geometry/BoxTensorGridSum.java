@@ -108,14 +108,17 @@ final class BoxTensorGridSum implements TensorGridSum {
     // vectorises), instead of strided dot products.
     private void contract(double[] c, double[][] tx, double[][] ty, double[][] tz, double[] t1, double[] t2,
                           double[] row, double[] out, int offset, int comp) {
-        // T1[l][m][k] = Σ_n c[l][m][n] Z[n][k]
+        // T1[l][m][k] = Σ_n c[l][m][n] Z[n][k]; (l, m) rows with no mode (outside the cutoff
+        // sphere) stay zero and are skipped in the next step.
         java.util.Arrays.fill(t1, 0.0);
+        boolean[] live = new boolean[nl * nm];
         for (int lm = 0; lm < nl * nm; lm++) {
             int dst = lm * nz;
             for (int n = 0; n < nn; n++) {
                 double w = c[lm * nn + n];
                 if (w != 0.0) {
                     axpy(w, tz[n], 0, t1, dst, nz);
+                    live[lm] = true;
                 }
             }
         }
@@ -126,7 +129,7 @@ final class BoxTensorGridSum implements TensorGridSum {
                 int dst = (l * ny + j) * nz;
                 for (int m = 0; m < nm; m++) {
                     double w = ty[m][j];
-                    if (w != 0.0) {
+                    if (w != 0.0 && live[l * nm + m]) {
                         axpy(w, t1, (l * nm + m) * nz, t2, dst, nz);
                     }
                 }
