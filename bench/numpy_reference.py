@@ -4,6 +4,7 @@
 Same cases as SynthesisBench.java:
   grid64  1 m cube, k <= 32*pi/L (indices <= 32 per axis), E on a 64^3 cell-centred grid, via
           einsum over the separable sin/cos factors (BLAS-backed tensordot), amplitudes drawn per sample;
+  grid64-io  the same, writing each sample's E to one raw float32 .npy file;
   points  1 x 1.3 x 1.7 m box, k <= 64.5 rad/m (about 2e4 modes), E at 1000 points, as one
           BLAS matrix product U (3P x M) @ amplitudes (M x S).
 Usage: python3 numpy_reference.py CASE SAMPLES REPEATS   (prints median samples/s)
@@ -40,7 +41,19 @@ def box_modes(a, b, d, kmax):
     return cat(0), cat(1), cat(2), cat(3), cat(4), (L, M, N)
 
 
-def grid64(samples, rng):
+def grid64_io(samples, rng, path="/tmp/stillfield-bench-grid64.npy"):
+    """grid64 with every sample's E written to one raw .npy file (float32), as a user would."""
+    out = np.lib.format.open_memmap(path, mode="w+", dtype=np.float32, shape=(samples, 3, 64, 64, 64))
+    modes = None
+    for s in range(samples):
+        modes, npts, field = grid64(1, rng, keep=True)
+        out[s] = field
+    out.flush()
+    del out
+    return modes, npts
+
+
+def grid64(samples, rng, keep=False):
     a = b = d = 1.0
     l, m, n, k, e, (L, M, N) = box_modes(a, b, d, 32 * np.pi * (1 + 1e-12))
     V = a * b * d
@@ -57,6 +70,8 @@ def grid64(samples, rng):
             np.add.at(c, (l, m, n), amp * e[:, comp])
             f = [Cc if p == "c" else S for p in pattern]
             out[comp] = np.einsum("lmn,il,jm,kn->ijk", c, f[0], f[1], f[2], optimize=True)
+    if keep:
+        return len(k), 64**3, out
     return len(k), 64**3
 
 
@@ -83,7 +98,7 @@ def main():
     case = sys.argv[1] if len(sys.argv) > 1 else "grid64"
     samples = int(sys.argv[2]) if len(sys.argv) > 2 else 20
     repeats = int(sys.argv[3]) if len(sys.argv) > 3 else 5
-    fn = grid64 if case == "grid64" else points
+    fn = {"grid64": grid64, "grid64-io": grid64_io, "points": points}[case]
     rng = np.random.default_rng(1)
     rates = []
     for r in range(repeats + 1):

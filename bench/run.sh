@@ -19,3 +19,14 @@ for case in grid64:$sg points:$sp; do
   p=$(python3 "$here/numpy_reference.py" "$name" "$n" "$rep"); echo "$p"
   ratio "$name" "$(echo "$j" | rate)" "$(echo "$p" | rate)"
 done
+
+# (b) end to end: Stillfield's own command writing a float32 dataset, against NumPy writing .npy.
+tmp_out="$(mktemp -d)"
+t0=$(date +%s.%N)
+java -jar "$jar" sample "$here/grid64.yaml" --samples "$sg" --output "$tmp_out/ds" > /dev/null
+t1=$(date +%s.%N)
+jrate=$(python3 -c "print($sg/($t1-$t0))")
+echo "java grid64-io (whole command, JVM start included) samples=$sg median_samples_per_s=$jrate"
+rm -rf "$tmp_out"
+p=$(python3 "$here/numpy_reference.py" grid64-io "$sg" 1); echo "$p"
+ratio grid64-io "$jrate" "$(echo "$p" | rate)"
