@@ -107,6 +107,14 @@ public final class EnsembleRunner {
         long perSample = 8L * (2L * m + 3L * nPoints * nFields);
         int batch = (int) Math.max(1, Math.min(256, DEFAULT_BATCH_BYTES / Math.max(1, perSample)));
         ForkJoinPool pool = new ForkJoinPool(plan.threads());
+        // The sink works on batch k on its own thread while the pool computes batch k+1, so
+        // writing overlaps synthesis; at most two batches are alive at once.
+        java.util.concurrent.ExecutorService writer = java.util.concurrent.Executors.newSingleThreadExecutor(r -> {
+            Thread t = new Thread(r, "stillfield-sink");
+            t.setDaemon(true);
+            return t;
+        });
+        java.util.concurrent.Future<?> pending = null;
         try {
             long done = 0;
             while (done < plan.sampleCount()) {
@@ -123,15 +131,56 @@ public final class EnsembleRunner {
                     }
                     synth.synthesize(q, e, values, pool, first);
                 }
-                sink.accept(new SampleBatch(first, q, e, values));
+                SampleBatch b = new SampleBatch(first, q, e, values);
+                await(pending);
+                pending = writer.submit(() -> {
+                    sink.accept(b);
+                    return null;
+                });
                 done += s;
                 if (progress != null) {
                     progress.accept(done);
                 }
             }
+            await(pending);
+            pending = null;
             sink.finish();
         } finally {
+            if (pending != null) {
+                pending.cancel(false);
+                try {
+                    pending.get();
+                } catch (Exception ignored) {
+                    // the run already failed; the first failure is the one reported
+                }
+            }
+            writer.shutdownNow();
             pool.shutdownNow();
+        }
+    }
+
+    /** Waits for the sink's previous batch, rethrowing its failure as it was thrown. */
+    private static void await(java.util.concurrent.Future<?> f) throws IOException {
+        if (f == null) {
+            return;
+        }
+        try {
+            f.get();
+        } catch (InterruptedException ex) {
+            Thread.currentThread().interrupt();
+            throw new java.io.InterruptedIOException("interrupted while writing");
+        } catch (java.util.concurrent.ExecutionException ex) {
+            Throwable c = ex.getCause();
+            if (c instanceof IOException) {
+                throw (IOException) c;
+            }
+            if (c instanceof RuntimeException) {
+                throw (RuntimeException) c;
+            }
+            if (c instanceof Error) {
+                throw (Error) c;
+            }
+            throw new IOException(c);
         }
     }
 }
