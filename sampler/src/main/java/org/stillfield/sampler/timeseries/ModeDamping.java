@@ -33,9 +33,22 @@ public final class ModeDamping {
     public static ModeDamping of(ModeTable table, LossModel model) {
         Objects.requireNonNull(table, "table");
         Objects.requireNonNull(model, "model");
-        double[] q = model.qualityFactors(table);
+        return of(table, model.qualityFactors(table), model.describe());
+    }
+
+    /**
+     * Per-mode quality factors given directly (measured, or from a model outside this package).
+     *
+     * @param table the modes
+     * @param q Q_l in table order, each positive; {@link Double#POSITIVE_INFINITY} for a lossless mode
+     * @param description what the values are, for footers
+     * @return Q and κ per mode
+     */
+    public static ModeDamping of(ModeTable table, double[] q, String description) {
+        Objects.requireNonNull(table, "table");
+        q = q.clone();
         if (q.length != table.size()) {
-            throw new IllegalArgumentException("loss model returned " + q.length + " quality factors for "
+            throw new IllegalArgumentException("quality factors: got " + q.length + " values for "
                 + table.size() + " modes");
         }
         double[] kappa = new double[q.length];
@@ -46,7 +59,7 @@ public final class ModeDamping {
             }
             kappa[l] = Double.isInfinite(q[l]) ? 0.0 : table.omega(l) / q[l];
         }
-        return new ModeDamping(q, kappa, model.describe());
+        return new ModeDamping(q, kappa, Objects.requireNonNull(description, "description"));
     }
 
     /** @return number of modes */
