@@ -22,13 +22,11 @@ import org.stillfield.sampler.geometry.RectangularCavity;
  *   Q_c = ω W / P = μ ω V / (R_s ∮ |h_tan|² dS),
  * </pre>
  * μ the filling's permeability (the wall is taken non-magnetic, μ_c = μ0, as in Pozar). The
- * integral uses the cavity's own {@link ModeFunctions} on the six faces, by composite
- * Gauss–Legendre quadrature: 10 nodes per panel and panels no longer than a quarter wavelength
- * of the highest mode of a chunk, which integrates the trigonometric integrands to rounding.
+ * integral uses the cavity's own {@link ModeFunctions} on the six faces, by product Gauss–Legendre
+ * quadrature with enough nodes per axis for the highest mode of a chunk to integrate the
+ * trigonometric integrands to rounding.
  */
 final class BoxWallLoss {
-    /** Gauss–Legendre nodes per panel. */
-    private static final int NODES = 10;
     /** Modes evaluated together; sorted by k, so a chunk's panels follow its own highest mode. */
     private static final int CHUNK = 64;
 
@@ -71,7 +69,7 @@ final class BoxWallLoss {
         Vec3[] bounds = box.bounds();
         double[] lo = {bounds[0].x(), bounds[0].y(), bounds[0].z()};
         double[] hi = {bounds[1].x(), bounds[1].y(), bounds[1].z()};
-        GaussIntegrator unit = new GaussIntegratorFactory().legendre(NODES);
+        GaussIntegratorFactory factory = new GaussIntegratorFactory();
         double[] out = new double[modes.size()];
         for (int start = 0; start < modes.size(); start += CHUNK) {
             List<Mode> chunk = modes.subList(start, Math.min(modes.size(), start + CHUNK));
@@ -84,8 +82,8 @@ final class BoxWallLoss {
             for (int axis = 0; axis < 3; axis++) {
                 int a1 = (axis + 1) % 3;
                 int a2 = (axis + 2) % 3;
-                double[][] n1 = nodes(unit, lo[a1], hi[a1], kMax);
-                double[][] n2 = nodes(unit, lo[a2], hi[a2], kMax);
+                double[][] n1 = nodes(factory, lo[a1], hi[a1], kMax);
+                double[][] n2 = nodes(factory, lo[a2], hi[a2], kMax);
                 for (double wall : new double[] {lo[axis], hi[axis]}) {
                     face(f, axis, a1, a2, wall, n1, n2, acc);
                 }
@@ -117,18 +115,21 @@ final class BoxWallLoss {
         }
     }
 
-    /** Composite Gauss–Legendre nodes and weights on [lo, hi], panels ≤ a quarter wavelength 2π/(4k). */
-    private static double[][] nodes(GaussIntegrator unit, double lo, double hi, double k) {
-        int panels = Math.max(1, (int) Math.ceil((hi - lo) * 2 * k / Math.PI));
-        double width = (hi - lo) / panels;
-        double[] x = new double[panels * NODES];
-        double[] w = new double[panels * NODES];
-        for (int p = 0; p < panels; p++) {
-            double mid = lo + (p + 0.5) * width;
-            for (int i = 0; i < NODES; i++) {
-                x[p * NODES + i] = mid + 0.5 * width * unit.getPoint(i);
-                w[p * NODES + i] = 0.5 * width * unit.getWeight(i);
-            }
+    /**
+     * Gauss–Legendre nodes and weights on [lo, hi] for integrands up to cos(2k x): the rule maps the
+     * interval to [−1, 1], where the integrand oscillates as cos(α t) with α = k (hi − lo), and
+     * n = α/2 + 2√α + 12 nodes bring the error of such an integral below 1e-14 (checked for α up to
+     * 400 against the exact 2 sin α/α).
+     */
+    private static double[][] nodes(GaussIntegratorFactory factory, double lo, double hi, double k) {
+        double alpha = k * (hi - lo);
+        int n = (int) Math.ceil(alpha / 2 + 2 * Math.sqrt(alpha) + 12);
+        GaussIntegrator rule = factory.legendre(n, lo, hi);
+        double[] x = new double[n];
+        double[] w = new double[n];
+        for (int i = 0; i < n; i++) {
+            x[i] = rule.getPoint(i);
+            w[i] = rule.getWeight(i);
         }
         return new double[][] {x, w};
     }
