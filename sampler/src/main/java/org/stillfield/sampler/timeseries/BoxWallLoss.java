@@ -12,7 +12,8 @@ import org.stillfield.sampler.geometry.RectangularCavity;
 
 /**
  * Conductor Q of box modes by direct integration of the wall losses (perturbation method:
- * Pozar, Microwave Engineering, cavity resonators; Jackson, Classical Electrodynamics §8.8).
+ * Pozar, Microwave Engineering, cavity resonators; Jackson, Classical Electrodynamics §8.8, source
+ * from memory).
  *
  * <p>For a mode with E = ω q₀ u sin ωt and B = k q₀ h cos ωt (PHYSICS.md §2, e = −q̇), the stored
  * energy is W = (ε/2) ω² q₀² ∫u·u = (ε/2) ω² q₀² V and the time-averaged wall loss of a good
@@ -27,7 +28,7 @@ import org.stillfield.sampler.geometry.RectangularCavity;
  * trigonometric integrands to rounding.
  */
 final class BoxWallLoss {
-    /** Modes evaluated together; sorted by k, so a chunk's panels follow its own highest mode. */
+    /** Modes evaluated together; sorted by k, so each chunk sizes its rule to its own highest mode. */
     private static final int CHUNK = 64;
 
     private BoxWallLoss() {
