@@ -55,15 +55,9 @@ public final class CylindricalCavity implements Cavity {
      * @return the cavity
      */
     public static CylindricalCavity of(double radiusMetres, double lengthMetres, Medium medium) {
-        positive(radiusMetres, "cavity.radius_m");
-        positive(lengthMetres, "cavity.length_m");
+        Checks.positiveLength(radiusMetres, "cavity.radius_m");
+        Checks.positiveLength(lengthMetres, "cavity.length_m");
         return new CylindricalCavity(radiusMetres, lengthMetres, Objects.requireNonNull(medium, "medium"));
-    }
-
-    private static void positive(double v, String name) {
-        if (!(v > 0) || !Double.isFinite(v)) {
-            throw new IllegalArgumentException(name + " must be positive and finite (metres): " + v);
-        }
     }
 
     @Override

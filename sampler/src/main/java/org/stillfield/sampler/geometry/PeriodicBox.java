@@ -49,16 +49,10 @@ public final class PeriodicBox implements Cavity {
      * @return the box
      */
     public static PeriodicBox of(double lxMetres, double lyMetres, double lzMetres, Medium medium) {
-        positive(lxMetres, "cavity.lx_m");
-        positive(lyMetres, "cavity.ly_m");
-        positive(lzMetres, "cavity.lz_m");
+        Checks.positiveLength(lxMetres, "cavity.lx_m");
+        Checks.positiveLength(lyMetres, "cavity.ly_m");
+        Checks.positiveLength(lzMetres, "cavity.lz_m");
         return new PeriodicBox(lxMetres, lyMetres, lzMetres, Objects.requireNonNull(medium, "medium"));
-    }
-
-    private static void positive(double v, String name) {
-        if (!(v > 0) || !Double.isFinite(v)) {
-            throw new IllegalArgumentException(name + " must be positive and finite (metres): " + v);
-        }
     }
 
     @Override

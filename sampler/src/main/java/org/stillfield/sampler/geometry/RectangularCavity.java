@@ -48,16 +48,10 @@ public final class RectangularCavity implements Cavity {
      * @return the cavity
      */
     public static RectangularCavity of(double aMetres, double bMetres, double dMetres, Medium medium) {
-        positive(aMetres, "cavity.a_m");
-        positive(bMetres, "cavity.b_m");
-        positive(dMetres, "cavity.d_m");
+        Checks.positiveLength(aMetres, "cavity.a_m");
+        Checks.positiveLength(bMetres, "cavity.b_m");
+        Checks.positiveLength(dMetres, "cavity.d_m");
         return new RectangularCavity(aMetres, bMetres, dMetres, Objects.requireNonNull(medium, "medium"));
-    }
-
-    private static void positive(double v, String name) {
-        if (!(v > 0) || !Double.isFinite(v)) {
-            throw new IllegalArgumentException(name + " must be positive and finite (metres): " + v);
-        }
     }
 
     @Override

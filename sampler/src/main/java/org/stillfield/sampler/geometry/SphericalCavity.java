@@ -56,9 +56,7 @@ public final class SphericalCavity implements Cavity {
      * @return the cavity
      */
     public static SphericalCavity of(double radiusMetres, Medium medium) {
-        if (!(radiusMetres > 0) || !Double.isFinite(radiusMetres)) {
-            throw new IllegalArgumentException("cavity.radius_m must be positive and finite (metres): " + radiusMetres);
-        }
+        Checks.positiveLength(radiusMetres, "cavity.radius_m");
         return new SphericalCavity(radiusMetres, Objects.requireNonNull(medium, "medium"));
     }
 
