@@ -242,7 +242,7 @@ class PartsAndShardsTest {
 
     @Test
     void aModeWithANonFiniteVarianceIsRefusedBeforeAnythingIsWritten() throws Exception {
-        // kT/ħω overflows: at 1e305 K the thermal factor coth(ħω/2kT) ≈ 2kT/ħω exceeds the double range.
+        // At 1e308 K, x = ħω/2kT ≈ 1e-310 for the 0.3 GHz modes: coth x ≈ 1/x ≈ 1e310 overflows to +∞.
         RunSpec hot = TestRuns.spec(dir, TestRuns.yaml("float64", 1, 3).replace("fields:",
             "state: {kind: thermal, temperature_K: 1.0e308}\nfields:"));
         ModeTable table = TestRuns.table(hot);
