@@ -156,6 +156,8 @@ case("output-over-limit", "limits.max_output_GB = 0.001", sub(r"^  max_modes: .*
 case("memory-over-limit", "limits.max_memory_GB = 0.01", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_memory_GB: 0.01"))
 case("grid-large-disk-full", "output.folder", lambda t: sub(r"^samples: 1000", "samples: 1000000000")(
     sub(r"n: \[24, 1, 32\]", "n: [1000, 1000, 1]")(t)))
+case("part-samples-too-many-parts", "output.part_samples", lambda t: sub(r"^samples: 1000", "samples: 1000000")(
+    po("  part_samples: 1")(t)))
 
 for f in glob.glob("[0-9][0-9][0-9]-*.yaml"):
     os.remove(f)

@@ -54,6 +54,8 @@ final class Layout {
     static final Pattern PART_FILE = Pattern.compile("(amplitudes|fields)/part-(\\d{5,9})\\.parquet");
     /** Target raw (uncompressed) size of a part's larger table under the default part size, bytes. */
     static final long TARGET_PART_BYTES = 200_000_000L;
+    /** Most parts a run may have: resume and the manifest look at every part's record. */
+    static final int MAX_PARTS = 100_000;
     /** Raw bytes of one amplitude row: sample (int64), mode (int32), q, e (double). */
     static final long AMPLITUDE_ROW_BYTES = 8 + 4 + 8 + 8;
 
@@ -74,7 +76,8 @@ final class Layout {
 
     /**
      * The default part size: as many samples as keep the larger of a part's two tables near
-     * {@link #TARGET_PART_BYTES} raw, at least one; never more than the run has.
+     * {@link #TARGET_PART_BYTES} raw, at least one, and enough that the run has at most
+     * {@link #MAX_PARTS} parts; never more than the run has.
      */
     static long partSamples(RunSpec spec, int modes) {
         long samples = spec.samples();
@@ -84,15 +87,16 @@ final class Layout {
         }
         long points = spec.allPoints().size();
         long perSample = Math.max(AMPLITUDE_ROW_BYTES * modes, fieldRowBytes(spec.fields().size(), spec.precision()) * points);
-        return Math.max(1, Math.min(samples, TARGET_PART_BYTES / Math.max(1, perSample)));
+        long atLeast = (samples + MAX_PARTS - 1) / MAX_PARTS;
+        return Math.max(atLeast, Math.max(1, Math.min(samples, TARGET_PART_BYTES / Math.max(1, perSample))));
     }
 
     /** @return number of parts of a run of {@code samples} samples, parts of {@code partSamples} */
     static int partCount(long samples, long partSamples) {
         long k = (samples + partSamples - 1) / partSamples;
-        if (k > 999_999_999L) {
+        if (k > MAX_PARTS) {
             throw new IllegalArgumentException("output.part_samples = " + partSamples + " splits " + samples
-                + " samples into " + k + " parts, more than 999999999; use larger parts");
+                + " samples into " + k + " parts, more than " + MAX_PARTS + "; use larger parts");
         }
         return (int) k;
     }
