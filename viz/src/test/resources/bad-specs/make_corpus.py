@@ -150,7 +150,7 @@ case("shard-typo", "output.shards", po('  shards: "0/8"'))
 for key in ["max_output_GB", "max_memory_GB"]:
     for label, val in [("zero", "0"), ("negative", "-1"), ("text", "lots"), ("nan", ".nan"), ("inf", ".inf")]:
         case(f"{key}-{label}", f"limits.{key}", sub(r"^  max_modes: .*", f"  max_modes: 200000\n  {key}: {val}"))
-case("limits-gb-typo", "limits.max_output_GB", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_output_gb: 1"))
+case("limits-gb-typo", "limits.max_output_gb", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_output_gb: 1"))
 # resource guards: refused with the estimate before anything is written
 case("output-over-limit", "limits.max_output_GB = 0.001", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_output_GB: 0.001"))
 case("memory-over-limit", "limits.max_memory_GB = 0.01", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_memory_GB: 0.01"))

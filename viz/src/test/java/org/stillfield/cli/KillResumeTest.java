@@ -145,5 +145,13 @@ class KillResumeTest {
         }
         assertEquals(JSON.readTree(whole.resolve("manifest.json").toFile()).get("run_key"),
             JSON.readTree(out.resolve("manifest.json").toFile()).get("run_key"));
+        Dataset dw = Dataset.open(whole);
+        Dataset dk = Dataset.open(out);
+        assertEquals(dw.partCount(), dk.partCount());
+        for (int k = 0; k < dw.partCount(); k++) {
+            for (String f : dw.partFiles(k)) {
+                assertEquals(dw.footer(f), dk.footer(f), f + " footer");
+            }
+        }
     }
 }
