@@ -361,6 +361,11 @@ public final class DatasetWriter implements EnsembleSink {
             return Found.REPLACE;
         }
         String existing = hasManifest ? keyOf(target.resolve(Layout.MANIFEST)) : keyOf(target.resolve(Layout.RUN_FILE));
+        if (existing == null && hasManifest) {
+            throw new IllegalArgumentException("output.folder " + target + " holds a dataset of another format than "
+                + Version.DATASET_FORMAT + " (no run key in its " + Layout.MANIFEST
+                + "); choose another folder or pass --overwrite to replace it");
+        }
         if (!key.equals(existing)) {
             throw new IllegalArgumentException("output.folder " + target + " already holds "
                 + (hasManifest ? "a complete dataset" : "an incomplete run") + " of another spec (run key "
