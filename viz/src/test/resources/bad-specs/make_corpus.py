@@ -138,6 +138,27 @@ case("yaml-not-mapping", "", lambda t: "- just\n- a list\n")
 case("yaml-empty", "", lambda t: "# nothing here\n")
 case("yaml-scalar", "", lambda t: "hello\n")
 
+# parts, shards and resource guards (appended so the numbers above stay)
+po = lambda extra: sub(r"^  precision: float64.*", "  precision: float64\n" + extra)
+for label, val in [("zero", "0"), ("negative", "-10"), ("fraction", "2.5"), ("text", "many"), ("huge", "10000000000")]:
+    case(f"part-samples-{label}", "output.part_samples", po(f"  part_samples: {val}"))
+case("part-samples-typo", "output.part_sample", po("  part_sample: 100"))
+for label, val in [("index-equals-count", '"8/8"'), ("zero-count", '"1/0"'), ("negative", '"-1/4"'), ("text", '"a/b"'),
+                   ("number", "3"), ("list", "[0, 8]"), ("three-parts", '"1/2/3"'), ("count-huge", '"0/1000000"')]:
+    case(f"shard-{label}", "output.shard", po(f"  shard: {val}"))
+case("shard-typo", "output.shards", po('  shards: "0/8"'))
+for key in ["max_output_GB", "max_memory_GB"]:
+    for label, val in [("zero", "0"), ("negative", "-1"), ("text", "lots"), ("nan", ".nan"), ("inf", ".inf")]:
+        case(f"{key}-{label}", f"limits.{key}", sub(r"^  max_modes: .*", f"  max_modes: 200000\n  {key}: {val}"))
+case("limits-gb-typo", "limits.max_output_gb", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_output_gb: 1"))
+# resource guards: refused with the estimate before anything is written
+case("output-over-limit", "limits.max_output_GB = 0.001", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_output_GB: 0.001"))
+case("memory-over-limit", "limits.max_memory_GB = 0.01", sub(r"^  max_modes: .*", "  max_modes: 200000\n  max_memory_GB: 0.01"))
+case("grid-large-disk-full", "output.folder", lambda t: sub(r"^samples: 1000", "samples: 1000000000")(
+    sub(r"n: \[24, 1, 32\]", "n: [1000, 1000, 1]")(t)))
+case("part-samples-too-many-parts", "output.part_samples", lambda t: sub(r"^samples: 1000", "samples: 1000000")(
+    po("  part_samples: 1")(t)))
+
 for f in glob.glob("[0-9][0-9][0-9]-*.yaml"):
     os.remove(f)
 for i, (name, expect, fn) in enumerate(cases):

@@ -90,7 +90,9 @@ public final class Main implements Runnable {
                 w.println("stillfield: i/o error: " + t.getMessage());
                 return FAILED;
             }
-            w.println("stillfield: failed: " + t);
+            // A non-finite value or a broken invariant: its message names the mode, point or sample.
+            w.println("stillfield: failed: " + (t instanceof IllegalStateException && t.getMessage() != null
+                ? t.getMessage() : t.toString()));
             if (System.getenv("STILLFIELD_DEBUG") != null) {
                 t.printStackTrace(w);
             }

@@ -26,7 +26,9 @@ import org.stillfield.sampler.api.SampleBatch;
 import org.stillfield.sampler.engine.EnsembleRunner;
 import org.stillfield.sampler.io.Dataset;
 import org.stillfield.sampler.io.DatasetWriter;
+import org.stillfield.sampler.io.ResourceGuard;
 import org.stillfield.sampler.spec.RunSpec;
+import org.stillfield.sampler.spec.Shard;
 import org.stillfield.viz.Figure;
 import org.stillfield.viz.RunReport;
 
@@ -35,8 +37,14 @@ final class Pipeline {
     private Pipeline() {
     }
 
-    /** What a sampling step produced. */
-    record SampleSummary(Path folder, long samples, int modes, int points, double seconds) {
+    /** What a sampling step produced: the run's size, and what this process wrote and found. */
+    record SampleSummary(Path folder, long samples, int modes, int points, double seconds, long written,
+                         DatasetWriter.Outcome outcome, int partsPresent, int partCount, Shard shard) {
+        /** @return true when this process should go on to analyse the dataset */
+        boolean analyse() {
+            return outcome == DatasetWriter.Outcome.COMPLETED
+                || outcome == DatasetWriter.Outcome.ALREADY_COMPLETE && shard.isWhole();
+        }
     }
 
     /** What an analysis step produced. */
@@ -67,24 +75,71 @@ final class Pipeline {
     }
 
     static SampleSummary sample(RunSpec spec, boolean overwrite, PrintWriter out) throws IOException {
+        return sample(spec, overwrite, true, out);
+    }
+
+    /**
+     * Samples the parts of the spec's shard that the output folder still lacks, then writes the
+     * manifest if every part of the run is present.
+     */
+    static SampleSummary sample(RunSpec spec, boolean overwrite, boolean checkSpace, PrintWriter out) throws IOException {
         ModeTable table = modes(spec);
         describeModes(spec, table, out);
-        out.printf(Locale.ROOT, "sampling %d samples of %s at %d points on %d threads%n", spec.samples(), spec.fields(),
-            spec.allPoints().size(), spec.threads());
+        DatasetWriter.Plan plan = DatasetWriter.plan(spec, table, overwrite);
+        ResourceGuard.Estimate est = ResourceGuard.check(plan, spec, table, checkSpace);
+        out.printf(Locale.ROOT, "parts    %d of %d samples%s; %s%n", plan.partCount(), plan.partSamples(),
+            plan.shard().isWhole() ? "" : String.format(Locale.ROOT, "; shard %s has parts [%d, %d)", plan.shard(),
+                plan.firstPart(), plan.endPart()),
+            plan.complete() ? "the dataset is already complete"
+                : String.format(Locale.ROOT, "%d part(s) to write%s, up to %s on disk, about %s of heap",
+                    plan.pendingParts().size(), plan.resuming() ? " (resuming)" : "", ResourceGuard.size(est.diskBytes()),
+                    ResourceGuard.size(est.memoryBytes())));
+        if (plan.pendingSamples() > 0) {
+            out.printf(Locale.ROOT, "sampling %d samples of %s at %d points on %d threads%n", plan.pendingSamples(),
+                spec.fields(), spec.allPoints().size(), spec.threads());
+        }
         out.flush();
-        EnsembleRunner.Plan plan = new EnsembleRunner.Plan(table, spec.allPoints(), spec.fields(), spec.seed(), 0,
-            spec.samples(), spec.threads());
         long t0 = System.nanoTime();
-        try (DatasetWriter writer = DatasetWriter.create(spec, table, overwrite); Progress progress = Progress.of(spec.samples())) {
-            EnsembleRunner.run(plan, spec.pointSets(), writer, progress);
+        DatasetWriter.Outcome outcome;
+        int present;
+        try (DatasetWriter writer = plan.open(); Progress progress = Progress.of(plan.pendingSamples())) {
+            long written = 0;
+            for (DatasetWriter.Range r : plan.pending()) {
+                long before = written;
+                EnsembleRunner.Plan run = new EnsembleRunner.Plan(table, spec.allPoints(), spec.fields(), spec.seed(),
+                    r.firstSample(), r.sampleCount(), spec.threads());
+                EnsembleRunner.run(run, spec.pointSets(), writer.batches(), n -> progress.accept(before + n));
+                written += r.sampleCount();
+            }
+            writer.finish();
+            outcome = writer.outcome();
+            present = writer.partsPresent();
         }
         double seconds = (System.nanoTime() - t0) * 1e-9;
-        return new SampleSummary(spec.outputFolder(), spec.samples(), table.size(), spec.allPoints().size(), seconds);
+        return new SampleSummary(plan.folder(), spec.samples(), table.size(), spec.allPoints().size(), seconds,
+            plan.pendingSamples(), outcome, present, plan.partCount(), plan.shard());
     }
 
     static void printSample(SampleSummary s, PrintWriter out) {
-        out.printf(Locale.ROOT, "dataset  %s (%d samples, %d modes, %d points, %.2f s, %.1f samples/s)%n", s.folder(),
-            s.samples(), s.modes(), s.points(), s.seconds(), s.samples() / s.seconds());
+        String wrote = String.format(Locale.ROOT, "wrote %d samples in %.2f s%s", s.written(), s.seconds(),
+            s.written() > 0 ? String.format(Locale.ROOT, ", %.1f samples/s", s.written() / s.seconds()) : "");
+        switch (s.outcome()) {
+            case WAITING:
+                out.printf(Locale.ROOT, "shard    %s done (%s); %d of %d parts present: the manifest is written by whichever"
+                    + " shard completes the set, or by re-running the spec without --shard%n", s.shard(), wrote, s.partsPresent(),
+                    s.partCount());
+                break;
+            case ALREADY_COMPLETE:
+                if (s.written() == 0) {
+                    out.printf(Locale.ROOT, "dataset  %s is complete (%d samples, %d modes, %d points, %d parts); nothing to"
+                        + " sample%n", s.folder(), s.samples(), s.modes(), s.points(), s.partCount());
+                    break;
+                }
+                // fall through: another process wrote the manifest after this one's last part
+            default:
+                out.printf(Locale.ROOT, "dataset  %s (%d samples, %d modes, %d points, %d parts; %s)%n", s.folder(), s.samples(),
+                    s.modes(), s.points(), s.partCount(), wrote);
+        }
     }
 
     static Analysis analyze(Path folder, boolean write) throws Exception {

@@ -20,7 +20,11 @@ final class RunCommand implements Callable<Integer> {
     @Mixin
     SpecOptions specOptions;
 
-    @Option(names = "--overwrite", description = "Replace an existing output folder (only once the new dataset is complete).")
+    @Mixin
+    ShardOptions shardOptions;
+
+    @Option(names = "--overwrite", description = {"Replace the dataset or incomplete run in the output folder, whatever its",
+        "spec (removes its manifest first). Without it, the same spec resumes and another spec is refused."})
     boolean overwrite;
 
     @Spec
@@ -28,16 +32,24 @@ final class RunCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        RunSpec spec = specOptions.load();
+        RunSpec spec = shardOptions.apply(specOptions.load());
         PrintWriter out = command.commandLine().getOut();
-        Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, out);
+        Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, !shardOptions.noSpaceCheck, out);
         Pipeline.printSample(s, out);
+        if (!s.analyse()) {
+            out.println("analysis waits for the complete dataset: run 'stillfield analyze " + s.folder() + "' once it is");
+            out.flush();
+            return Main.OK;
+        }
         long t0 = System.nanoTime();
         Pipeline.Analysis a = Pipeline.analyze(s.folder(), true);
         double analysisSeconds = (System.nanoTime() - t0) * 1e-9;
         Map<String, String> facts = new LinkedHashMap<>();
         facts.put("dataset", s.folder().toString());
-        facts.put("sampling time", String.format(Locale.ROOT, "%.2f s (%.1f samples/s)", s.seconds(), s.samples() / s.seconds()));
+        facts.put("sampling time", s.written() == s.samples()
+            ? String.format(Locale.ROOT, "%.2f s (%.1f samples/s)", s.seconds(), s.samples() / s.seconds())
+            : String.format(Locale.ROOT, "%.2f s for %d of %d samples (the rest written earlier or by other shards)",
+                s.seconds(), s.written(), s.samples()));
         facts.put("analysis time", String.format(Locale.ROOT, "%.2f s", analysisSeconds));
         Path report = Pipeline.plot(s.folder(), a, facts);
         out.println("analysis: " + s.folder().resolve("analysis"));

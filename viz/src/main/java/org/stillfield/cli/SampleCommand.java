@@ -15,7 +15,11 @@ final class SampleCommand implements Callable<Integer> {
     @Mixin
     SpecOptions specOptions;
 
-    @Option(names = "--overwrite", description = "Replace an existing output folder (only once the new dataset is complete).")
+    @Mixin
+    ShardOptions shardOptions;
+
+    @Option(names = "--overwrite", description = {"Replace the dataset or incomplete run in the output folder, whatever its",
+        "spec (removes its manifest first). Without it, the same spec resumes and another spec is refused."})
     boolean overwrite;
 
     @Spec
@@ -23,9 +27,9 @@ final class SampleCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        RunSpec spec = specOptions.load();
+        RunSpec spec = shardOptions.apply(specOptions.load());
         PrintWriter out = command.commandLine().getOut();
-        Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, out);
+        Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, !shardOptions.noSpaceCheck, out);
         Pipeline.printSample(s, out);
         out.flush();
         return Main.OK;

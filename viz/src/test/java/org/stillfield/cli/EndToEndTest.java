@@ -70,8 +70,8 @@ class EndToEndTest {
         Result run = cli("run", spec.toString(), "--output", out.toString());
         assertEquals(0, run.code(), shape + ": " + run.out() + run.err());
         assertTrue(run.out().contains("verdict  PASS"), run.out());
-        for (String f : new String[] {"manifest.json", "modes.parquet", "points.parquet", "amplitudes.parquet",
-            "fields.parquet", "analysis/correlations.csv", "analysis/correlations.json", "analysis/verdict.json",
+        for (String f : new String[] {"manifest.json", "modes.parquet", "points.parquet", "amplitudes/part-00000.parquet",
+            "fields/part-00000.parquet", "analysis/correlations.csv", "analysis/correlations.json", "analysis/verdict.json",
             "report/index.html", "report/mode-count.png"}) {
             assertTrue(Files.isRegularFile(out.resolve(f)), shape + ": missing " + f);
         }
@@ -81,17 +81,48 @@ class EndToEndTest {
     }
 
     @Test
-    void existingOutputFolderIsRefusedUnlessOverwrite(@TempDir Path tmp) throws IOException {
+    void theSameSpecFindsItsDatasetCompleteAndAnotherIsRefusedUnlessOverwrite(@TempDir Path tmp) throws IOException {
         Path spec = tmp.resolve("box.yaml");
         Files.writeString(spec, spec("box"), StandardCharsets.UTF_8);
         Path out = tmp.resolve("out");
         assertEquals(0, cli("sample", spec.toString(), "--output", out.toString()).code());
         Result again = cli("sample", spec.toString(), "--output", out.toString());
-        assertEquals(2, again.code(), again.err());
-        assertTrue(again.err().contains("--overwrite"), again.err());
+        assertEquals(0, again.code(), again.err());
+        assertTrue(again.out().contains("is complete") && again.out().contains("nothing to sample"), again.out());
+        Result other = cli("sample", spec.toString(), "--output", out.toString(), "--samples", "50");
+        assertEquals(2, other.code(), other.err());
+        assertEquals(1, other.err().strip().lines().count(), other.err());
+        assertTrue(other.err().contains("output.folder") && other.err().contains("--overwrite"), other.err());
         Result over = cli("sample", spec.toString(), "--output", out.toString(), "--overwrite", "--samples", "50");
         assertEquals(0, over.code(), over.err());
         assertTrue(Files.readString(out.resolve("manifest.json")).contains("\"samples\" : 50"));
+    }
+
+    @Test
+    void shardsRunSeparatelyAndTheRunCompletesWithTheLastOne(@TempDir Path tmp) throws IOException {
+        Path spec = tmp.resolve("box.yaml");
+        Files.writeString(spec, spec("box").replace("samples: 200", "samples: 60\noutput: {part_samples: 20}"),
+            StandardCharsets.UTF_8);
+        Path out = tmp.resolve("out");
+        Result first = cli("run", spec.toString(), "--output", out.toString(), "--shard", "1/2");
+        assertEquals(0, first.code(), first.err());
+        assertTrue(first.out().contains("shard    1/2 done") && first.out().contains("2 of 3 parts present")
+            && first.out().contains("analysis waits"), first.out());
+        assertFalse(Files.exists(out.resolve("manifest.json")));
+        Result verify = cli("verify", out.toString());
+        assertEquals(2, verify.code());
+        assertTrue(verify.err().contains("2 of 3 parts present, missing part 0"), verify.err());
+        Result last = cli("run", spec.toString(), "--output", out.toString(), "--shard", "0/2");
+        assertEquals(0, last.code(), last.err() + last.out());
+        assertTrue(last.out().contains("verdict  PASS"), last.out());
+        assertEquals(0, cli("verify", out.toString()).code());
+        Result bad = cli("sample", spec.toString(), "--output", out.toString(), "--shard", "2/2");
+        assertEquals(2, bad.code());
+        assertEquals(1, bad.err().strip().lines().count(), bad.err());
+        assertTrue(bad.err().contains("--shard"), bad.err());
+        Result overwrite = cli("sample", spec.toString(), "--output", out.toString(), "--shard", "0/2", "--overwrite");
+        assertEquals(2, overwrite.code());
+        assertTrue(Files.exists(out.resolve("manifest.json")), "refused before anything was removed");
     }
 
     @Test
@@ -100,13 +131,13 @@ class EndToEndTest {
         Files.writeString(spec, spec("box"), StandardCharsets.UTF_8);
         Path out = tmp.resolve("out");
         assertEquals(0, cli("sample", spec.toString(), "--output", out.toString(), "--samples", "20").code());
-        Path fields = out.resolve("fields.parquet");
+        Path fields = out.resolve("fields/part-00000.parquet");
         byte[] bytes = Files.readAllBytes(fields);
         bytes[bytes.length / 2] ^= 0x5a;
         Files.write(fields, bytes);
         Result v = cli("verify", out.toString());
         assertEquals(2, v.code());
-        assertTrue(v.err().contains("fields.parquet"), v.err());
+        assertTrue(v.err().contains("fields/part-00000.parquet: SHA-256"), v.err());
     }
 
     @Test

@@ -29,9 +29,10 @@ import org.stillfield.sampler.spec.SpecReader;
 
 /**
  * A dataset folder written by {@link DatasetWriter}, opened for reading. Opening checks that
- * {@code manifest.json} is present and that every file it lists exists with the listed size;
- * files it does not list are ignored. {@link #problems(Path)} does the full check (hashes, row
- * counts, footers).
+ * {@code manifest.json} is present, lists the run-wide tables and both files of every part, and
+ * that every file it lists exists with the listed size; files it does not list (temporary files,
+ * parts of an abandoned attempt, the hidden state folder) are ignored. {@link #problems(Path)}
+ * does the full check (hashes, row counts, footers).
  *
  * <p>Reads stream one Parquet row group at a time; nothing loads a whole table. Instances are
  * immutable and may be shared; each read opens its own file handles.
@@ -46,6 +47,8 @@ public final class Dataset {
     private final List<Field> fields;
     private final RunSpec.Precision precision;
     private final Map<String, Long> listedBytes;
+    private final long partSamples;
+    private final int partCount;
     private final String specText;
 
     private Dataset(Path folder, JsonNode manifest) throws IOException {
@@ -60,6 +63,12 @@ public final class Dataset {
         this.samples = number(manifest, "samples");
         this.modeCount = Math.toIntExact(number(manifest, "modes"));
         this.pointCount = Math.toIntExact(number(manifest, "points"));
+        this.partSamples = number(manifest, "part_samples");
+        this.partCount = Math.toIntExact(number(manifest, "part_count"));
+        if (partSamples < 1 || samples < 1 || partCount != Layout.partCount(samples, partSamples)) {
+            throw new IOException("manifest.json in " + folder + ": part_count " + partCount + " does not match samples "
+                + samples + " in parts of part_samples " + partSamples);
+        }
         List<Field> f = new ArrayList<>();
         for (JsonNode n : manifest.path("fields")) {
             try {
@@ -77,12 +86,12 @@ public final class Dataset {
         Map<String, Long> bytes = new LinkedHashMap<>();
         for (JsonNode e : manifest.path("files")) {
             String file = text(e, "name");
-            if (!isPlainName(folder, file)) {
-                throw new IOException("manifest.json in " + folder + " lists a file outside the folder: '" + file + "'");
+            if (!isDatasetName(file)) {
+                throw new IOException("manifest.json in " + folder + " lists a file outside the folder or its layout: '" + file + "'");
             }
             bytes.put(file, number(e, "bytes"));
         }
-        for (String required : Layout.FILES) {
+        for (String required : requiredFiles(partCount)) {
             if (!bytes.containsKey(required)) {
                 throw new IOException("manifest.json in " + folder + " does not list " + required);
             }
@@ -103,6 +112,16 @@ public final class Dataset {
             throw new IOException(Layout.MODES + " in " + folder + " has no " + Layout.KEY_SPEC + " footer entry");
         }
         this.specText = spec;
+    }
+
+    /** @return the files a complete dataset of {@code parts} parts must list */
+    static List<String> requiredFiles(int parts) {
+        List<String> out = new ArrayList<>(Layout.COMMON);
+        for (int k = 0; k < parts; k++) {
+            out.add(Layout.part(Layout.AMPLITUDES, k));
+            out.add(Layout.part(Layout.FIELDS, k));
+        }
+        return out;
     }
 
     /**
@@ -173,6 +192,27 @@ public final class Dataset {
         return pointCount;
     }
 
+    /** @return samples per part (the last part may hold fewer) */
+    public long partSamples() {
+        return partSamples;
+    }
+
+    /** @return number of parts */
+    public int partCount() {
+        return partCount;
+    }
+
+    /**
+     * @param k part index in [0, partCount())
+     * @return the part's amplitude and field files, relative to the folder
+     */
+    public List<String> partFiles(int k) {
+        if (k < 0 || k >= partCount) {
+            throw new IllegalArgumentException("part must lie in [0, " + partCount + "): " + k);
+        }
+        return List.of(Layout.part(Layout.AMPLITUDES, k), Layout.part(Layout.FIELDS, k));
+    }
+
     /** @return the fields stored, in column order (A, E, B) */
     public List<Field> fields() {
         return fields;
@@ -200,7 +240,7 @@ public final class Dataset {
     }
 
     /**
-     * @param fileName one of the files listed in manifest.json, e.g. {@code fields.parquet}
+     * @param fileName one of the files listed in manifest.json, e.g. {@code fields/part-00000.parquet}
      * @return the file's Parquet footer key-value metadata
      * @throws IllegalArgumentException when the file is not listed
      * @throws IOException when the footer cannot be read
@@ -216,13 +256,9 @@ public final class Dataset {
         return listedBytes.containsKey(fileName);
     }
 
-    /** A manifest may only name files directly inside its own folder. */
-    private static boolean isPlainName(Path dir, String name) {
-        if (name.isEmpty()) {
-            return false;
-        }
-        Path p = dir.resolve(name).normalize();
-        return dir.equals(p.getParent());
+    /** A manifest may only name the files of the layout: nothing outside the folder, nothing else. */
+    static boolean isDatasetName(String name) {
+        return Layout.COMMON.contains(name) || Layout.PART_FILE.matcher(name).matches();
     }
 
     private static Map<String, String> readFooter(Path file) throws IOException {
@@ -235,7 +271,8 @@ public final class Dataset {
     /**
      * Hands the stored ensemble to a sink as the engine would: batches in sample order with q, e
      * per sample and, per field, values[3p + i] (NaN at points outside the cavity; float32 values
-     * widened exactly), then calls {@code sink.finish()}. The sink is not closed.
+     * widened exactly), then calls {@code sink.finish()}. The parts are read in order; a batch may
+     * span two parts. The sink is not closed.
      *
      * @param sink receives the batches
      * @param batchSize samples per batch, ≥ 1
@@ -246,19 +283,14 @@ public final class Dataset {
         if (batchSize < 1) {
             throw new IllegalArgumentException("batchSize must be >= 1: " + batchSize);
         }
-        try (ColumnScan amp = new ColumnScan(folder.resolve(Layout.AMPLITUDES), List.of("sample", "mode", "q", "e"));
-             ColumnScan fld = pointCount == 0 ? null : new ColumnScan(folder.resolve(Layout.FIELDS), fieldColumns(fields))) {
-            expectRows(Layout.AMPLITUDES, amp.rowCount(), samples * modeCount);
-            if (fld != null) {
-                expectRows(Layout.FIELDS, fld.rowCount(), samples * pointCount);
-            }
+        try (PartReader parts = new PartReader()) {
             for (long first = 0; first < samples; first += batchSize) {
                 int n = (int) Math.min(batchSize, samples - first);
                 double[][] q = new double[n][modeCount];
                 double[][] e = new double[n][modeCount];
                 Map<Field, double[][]> values = new EnumMap<>(Field.class);
                 double[][][] byField = new double[fields.size()][][];
-                if (fld != null) {
+                if (pointCount > 0) {
                     for (int f = 0; f < fields.size(); f++) {
                         byField[f] = new double[n][3 * pointCount];
                         values.put(fields.get(f), byField[f]);
@@ -266,19 +298,23 @@ public final class Dataset {
                 }
                 for (int s = 0; s < n; s++) {
                     long sample = first + s;
+                    parts.moveTo(sample);
+                    ColumnScan amp = parts.amp;
+                    String ampName = parts.ampName;
                     for (int l = 0; l < modeCount; l++) {
                         if (!amp.next() || amp.getLong(0) != sample || amp.getInt(1) != l) {
-                            throw new IOException(Layout.AMPLITUDES + ": expected the row of sample " + sample + ", mode " + l);
+                            throw new IOException(ampName + ": expected the row of sample " + sample + ", mode " + l);
                         }
                         q[s][l] = amp.getDouble(2);
                         e[s][l] = amp.getDouble(3);
                     }
-                    if (fld == null) {
+                    if (pointCount == 0) {
                         continue;
                     }
+                    ColumnScan fld = parts.fld;
                     for (int p = 0; p < pointCount; p++) {
                         if (!fld.next() || fld.getLong(0) != sample || fld.getInt(1) != p) {
-                            throw new IOException(Layout.FIELDS + ": expected the row of sample " + sample + ", point " + p);
+                            throw new IOException(parts.fldName + ": expected the row of sample " + sample + ", point " + p);
                         }
                         int c = 2;
                         for (double[][] v : byField) {
@@ -292,6 +328,49 @@ public final class Dataset {
             }
         }
         sink.finish();
+    }
+
+    /** The scans of the part that holds the current sample; opens the next part when needed. */
+    private final class PartReader implements AutoCloseable {
+        int part = -1;
+        long end;
+        ColumnScan amp;
+        ColumnScan fld;
+        String ampName;
+        String fldName;
+
+        void moveTo(long sample) throws IOException {
+            if (part >= 0 && sample < end) {
+                return;
+            }
+            close();
+            part = (int) (sample / partSamples);
+            long first = part * partSamples;
+            end = Math.min(first + partSamples, samples);
+            ampName = Layout.part(Layout.AMPLITUDES, part);
+            fldName = Layout.part(Layout.FIELDS, part);
+            amp = new ColumnScan(folder.resolve(ampName), List.of("sample", "mode", "q", "e"));
+            expectRows(ampName, amp.rowCount(), (end - first) * modeCount);
+            if (pointCount > 0) {
+                fld = new ColumnScan(folder.resolve(fldName), fieldColumns(fields));
+                expectRows(fldName, fld.rowCount(), (end - first) * pointCount);
+            }
+        }
+
+        @Override
+        public void close() throws IOException {
+            try {
+                if (amp != null) {
+                    amp.close();
+                }
+            } finally {
+                amp = null;
+                if (fld != null) {
+                    fld.close();
+                }
+                fld = null;
+            }
+        }
     }
 
     private static void expectRows(String file, long actual, long expected) throws IOException {
@@ -311,7 +390,8 @@ public final class Dataset {
     }
 
     /**
-     * Reads one sample of one field, touching only the pages that hold it (Parquet offset index).
+     * Reads one sample of one field from its part, touching only the pages that hold it (Parquet
+     * offset index).
      *
      * @param sample sample index in [0, samples())
      * @param field a stored field
@@ -331,10 +411,13 @@ public final class Dataset {
         if (pointCount == 0) {
             return out;
         }
+        int part = (int) (sample / partSamples);
+        long local = sample - part * partSamples;
+        String file = Layout.part(Layout.FIELDS, part);
         int found = 0;
-        try (ColumnScan scan = new ColumnScan(folder.resolve(Layout.FIELDS), fieldColumns(List.of(field)))) {
-            // Rows are stored densely in (sample, point) order, so sample s is rows sP .. sP + P - 1.
-            scan.restrictTo(sample * pointCount, sample * pointCount + pointCount - 1);
+        try (ColumnScan scan = new ColumnScan(folder.resolve(file), fieldColumns(List.of(field)))) {
+            // Rows are stored densely in (sample, point) order, so sample s is rows sP .. sP + P - 1 of its part.
+            scan.restrictTo(local * pointCount, local * pointCount + pointCount - 1);
             while (scan.next()) {
                 long s = scan.getLong(0);
                 if (s < sample) {
@@ -345,7 +428,7 @@ public final class Dataset {
                 }
                 int p = scan.getInt(1);
                 if (p != found) {
-                    throw new IOException(Layout.FIELDS + ": expected the row of sample " + sample + ", point " + found
+                    throw new IOException(file + ": expected the row of sample " + sample + ", point " + found
                         + ", found point " + p);
                 }
                 out[3 * p] = scan.getDouble(2);
@@ -355,15 +438,18 @@ public final class Dataset {
             }
         }
         if (found != pointCount) {
-            throw new IOException(Layout.FIELDS + " holds " + found + " of " + pointCount + " points of sample " + sample);
+            throw new IOException(file + " holds " + found + " of " + pointCount + " points of sample " + sample);
         }
         return out;
     }
 
     /**
-     * Full check of a dataset folder: manifest present and readable; every listed file present
-     * with the listed size and SHA-256; Parquet row counts equal to the manifest's and to
-     * samples × modes / points; the same spec text and sample count in every footer.
+     * Full check of a dataset folder. Each problem is one line naming the file (or
+     * {@code manifest.json}) and what is wrong: manifest missing (with a note on how many parts of
+     * an incomplete run are present) or unreadable; a file missing, outside the layout, of another
+     * size or SHA-256 than listed; Parquet row counts unequal to the manifest's and to
+     * samples × modes / points of the part; a footer whose run key, spec (compared through the run
+     * key it implies), sample count, part index or first sample disagree with the manifest.
      *
      * @param folder the dataset folder
      * @return human-readable problems, empty when the dataset is intact
@@ -373,14 +459,14 @@ public final class Dataset {
         Path dir = folder.toAbsolutePath().normalize();
         Path mf = dir.resolve(Layout.MANIFEST);
         if (!Files.isRegularFile(mf)) {
-            out.add(Layout.MANIFEST + " is missing in " + dir);
+            out.add(Layout.MANIFEST + ": missing in " + dir + incompleteNote(dir));
             return out;
         }
         JsonNode m;
         try {
             m = Layout.JSON.readTree(mf.toFile());
         } catch (IOException ex) {
-            out.add(Layout.MANIFEST + " cannot be read: " + ex.getMessage());
+            out.add(Layout.MANIFEST + ": cannot be read: " + ex.getMessage());
             return out;
         }
         String format = m.path("format").asText("");
@@ -390,84 +476,201 @@ public final class Dataset {
         long samples = m.path("samples").asLong(-1);
         long modes = m.path("modes").asLong(-1);
         long points = m.path("points").asLong(-1);
-        Map<String, Long> expected = Map.of(Layout.MODES, modes, Layout.POINTS, points,
-            Layout.AMPLITUDES, samples * modes, Layout.FIELDS, samples * points);
+        long partSamples = m.path("part_samples").asLong(-1);
+        long parts = m.path("part_count").asLong(-1);
+        String runKey = m.path("run_key").asText("");
+        if (partSamples < 1 || samples < 1 || parts != (samples + partSamples - 1) / partSamples) {
+            out.add(Layout.MANIFEST + ": part_count = " + parts + " does not match samples = " + samples
+                + " in parts of part_samples = " + partSamples);
+            return out;
+        }
         Map<String, JsonNode> listed = new LinkedHashMap<>();
         for (JsonNode e : m.path("files")) {
-            listed.put(e.path("name").asText(""), e);
-        }
-        for (String f : Layout.FILES) {
-            if (!listed.containsKey(f)) {
-                out.add(Layout.MANIFEST + " does not list " + f);
+            String name = e.path("name").asText("");
+            if (listed.put(name, e) != null) {
+                out.add(Layout.MANIFEST + ": lists " + name + " twice");
             }
         }
-        String firstSpec = null;
-        String firstSpecFile = null;
+        for (String f : requiredFiles((int) parts)) {
+            if (!listed.containsKey(f)) {
+                out.add(Layout.MANIFEST + ": does not list " + f);
+            }
+        }
+        long totalAmplitudeRows = 0;
+        long totalFieldRows = 0;
         for (Map.Entry<String, JsonNode> e : listed.entrySet()) {
             String name = e.getKey();
             JsonNode entry = e.getValue();
-            Path p = dir.resolve(name);
-            if (!isPlainName(dir, name)) {
-                out.add(Layout.MANIFEST + " lists an invalid file name '" + name + "'");
+            if (!isDatasetName(name)) {
+                out.add(Layout.MANIFEST + ": lists an invalid file name '" + name + "'");
                 continue;
             }
+            Path p = dir.resolve(name);
             if (!Files.isRegularFile(p)) {
-                out.add(name + " is missing");
+                out.add(name + ": missing");
                 continue;
             }
             try {
                 long size = Files.size(p);
                 if (size != entry.path("bytes").asLong(-1)) {
-                    out.add(name + " has " + size + " bytes, " + Layout.MANIFEST + " says " + entry.path("bytes").asText());
+                    out.add(name + ": has " + size + " bytes, " + Layout.MANIFEST + " says " + entry.path("bytes").asText());
                 }
                 String sha = sha256(p);
                 if (!sha.equals(entry.path("sha256").asText(""))) {
-                    out.add(name + " has SHA-256 " + sha + ", " + Layout.MANIFEST + " says " + entry.path("sha256").asText()
+                    out.add(name + ": SHA-256 is " + sha + ", " + Layout.MANIFEST + " says " + entry.path("sha256").asText()
                         + " (the file was changed or damaged)");
                 }
             } catch (IOException ex) {
-                out.add(name + " cannot be read: " + ex.getMessage());
+                out.add(name + ": cannot be read: " + ex.getMessage());
                 continue;
             }
-            if (!name.endsWith(".parquet")) {
-                continue;
+            // What this file must hold: rows from the manifest's shape; part files also their part.
+            long want;
+            int part = -1;
+            long first = 0;
+            java.util.regex.Matcher pm = Layout.PART_FILE.matcher(name);
+            if (pm.matches()) {
+                part = Integer.parseInt(pm.group(2));
+                if (part >= parts) {
+                    out.add(name + ": part " + part + " lies beyond part_count = " + parts);
+                    continue;
+                }
+                first = part * partSamples;
+                long n = Math.min(partSamples, samples - first);
+                want = pm.group(1).equals(Layout.AMPLITUDES) ? n * modes : n * points;
+                if (entry.path("part").asLong(-1) != part || entry.path("first_sample").asLong(-1) != first
+                    || entry.path("samples").asLong(-1) != n) {
+                    out.add(name + ": " + Layout.MANIFEST + " entry says part " + entry.path("part").asText() + ", first sample "
+                        + entry.path("first_sample").asText() + ", " + entry.path("samples").asText() + " samples; expected part "
+                        + part + ", first sample " + first + ", " + n + " samples");
+                }
+            } else {
+                want = name.equals(Layout.MODES) ? modes : points;
             }
             try (ParquetFileReader r = ParquetFileReader.open(new LocalInputFile(p),
                 ParquetReadOptions.builder(new PlainParquetConfiguration()).withCodecFactory(new PureJavaCodecs()).build())) {
                 long rows = r.getRecordCount();
                 long listedRows = entry.path("rows").asLong(-1);
                 if (rows != listedRows) {
-                    out.add(name + " has " + rows + " rows in its Parquet footer, " + Layout.MANIFEST + " says " + listedRows);
+                    out.add(name + ": " + rows + " rows in its Parquet footer, " + Layout.MANIFEST + " says " + listedRows);
                 }
-                Long want = expected.get(name);
-                if (want != null && rows != want) {
-                    out.add(name + " has " + rows + " rows, expected " + want + " from the manifest's samples, modes and points");
+                if (rows != want) {
+                    out.add(name + ": " + rows + " rows, expected " + want + " from the manifest's samples, modes and points");
                 }
-                Map<String, String> kv = r.getFileMetaData().getKeyValueMetaData();
-                String spec = kv.get(Layout.KEY_SPEC);
-                if (spec == null) {
-                    out.add(name + " footer has no " + Layout.KEY_SPEC);
-                } else if (firstSpec == null) {
-                    firstSpec = spec;
-                    firstSpecFile = name;
-                } else if (!firstSpec.equals(spec)) {
-                    out.add(name + " footer holds another spec than " + firstSpecFile);
+                if (pm.matches()) {
+                    if (pm.group(1).equals(Layout.AMPLITUDES)) {
+                        totalAmplitudeRows += rows;
+                    } else {
+                        totalFieldRows += rows;
+                    }
                 }
-                if (!Long.toString(samples).equals(kv.get(Layout.KEY_SAMPLES))) {
-                    out.add(name + " footer says " + Layout.KEY_SAMPLES + " = " + kv.get(Layout.KEY_SAMPLES) + ", "
-                        + Layout.MANIFEST + " says " + samples);
-                }
-                if (!Version.DATASET_FORMAT.equals(kv.get(Layout.KEY_FORMAT))) {
-                    out.add(name + " footer says " + Layout.KEY_FORMAT + " = " + kv.get(Layout.KEY_FORMAT));
-                }
+                footerProblems(name, r.getFileMetaData().getKeyValueMetaData(), runKey, samples, partSamples, parts, part,
+                    first, out);
             } catch (IOException | RuntimeException ex) {
-                out.add(name + " cannot be read as Parquet: " + ex.getMessage());
+                out.add(name + ": cannot be read as Parquet: " + ex.getMessage());
             }
+        }
+        if (out.isEmpty() && (totalAmplitudeRows != samples * modes || totalFieldRows != samples * points)) {
+            out.add(Layout.MANIFEST + ": parts hold " + totalAmplitudeRows + " amplitude and " + totalFieldRows
+                + " field rows, expected " + samples * modes + " and " + samples * points);
         }
         return out;
     }
 
-    private static String sha256(Path p) throws IOException {
+    /** Footer checks of one file against the manifest. */
+    private static void footerProblems(String name, Map<String, String> kv, String runKey, long samples, long partSamples,
+                                       long parts, int part, long first, List<String> out) {
+        String spec = kv.get(Layout.KEY_SPEC);
+        if (spec == null) {
+            out.add(name + ": footer has no " + Layout.KEY_SPEC);
+        } else {
+            String implied;
+            try {
+                implied = Layout.runKey(spec, samples, partSamples);
+            } catch (RuntimeException ex) {
+                implied = "unreadable (" + ex.getMessage() + ")";
+            }
+            if (!runKey.equals(implied)) {
+                out.add(name + ": footer holds another spec than the run's (its spec gives run key " + shortKey(implied)
+                    + ", " + Layout.MANIFEST + " says " + shortKey(runKey) + ")");
+            }
+        }
+        if (!runKey.equals(kv.get(Layout.KEY_RUN_KEY))) {
+            out.add(name + ": footer says " + Layout.KEY_RUN_KEY + " = " + shortKey(kv.get(Layout.KEY_RUN_KEY)) + ", "
+                + Layout.MANIFEST + " says " + shortKey(runKey));
+        }
+        expectKey(name, kv, Layout.KEY_SAMPLES, Long.toString(samples), out);
+        expectKey(name, kv, Layout.KEY_FORMAT, Version.DATASET_FORMAT, out);
+        expectKey(name, kv, Layout.KEY_PART_SAMPLES, Long.toString(partSamples), out);
+        expectKey(name, kv, Layout.KEY_PART_COUNT, Long.toString(parts), out);
+        if (part >= 0) {
+            expectKey(name, kv, Layout.KEY_PART, Integer.toString(part), out);
+            expectKey(name, kv, Layout.KEY_FIRST_SAMPLE, Long.toString(first), out);
+        }
+    }
+
+    private static void expectKey(String name, Map<String, String> kv, String key, String want, List<String> out) {
+        if (!want.equals(kv.get(key))) {
+            out.add(name + ": footer says " + key + " = " + kv.get(key) + ", expected " + want);
+        }
+    }
+
+    private static String shortKey(String key) {
+        return key == null ? "none" : key.length() > 16 ? key.substring(0, 16) + "…" : key;
+    }
+
+    /** For a folder without manifest: how far an incomplete run got, from its part records. */
+    private static String incompleteNote(Path dir) {
+        Path run = dir.resolve(Layout.RUN_FILE);
+        if (!Files.isRegularFile(run)) {
+            return " (not a dataset)";
+        }
+        try {
+            JsonNode r = Layout.JSON.readTree(run.toFile());
+            String key = r.path("run_key").asText("");
+            int parts = r.path("part_count").asInt(0);
+            List<Integer> missing = new ArrayList<>();
+            for (int k = 0; k < parts; k++) {
+                if (DatasetWriter.readPartRecord(dir, k, key) == null) {
+                    missing.add(k);
+                }
+            }
+            return " (an incomplete run: " + (parts - missing.size()) + " of " + parts + " parts present, missing "
+                + ranges(missing) + "; re-run the same spec, or its missing shards, to complete it)";
+        } catch (IOException | RuntimeException ex) {
+            return " (an incomplete run whose " + Layout.RUN_FILE + " cannot be read)";
+        }
+    }
+
+    /** "0-3, 7, 9-10" from an ascending list. */
+    static String ranges(List<Integer> list) {
+        StringBuilder sb = new StringBuilder();
+        for (int i = 0; i < list.size();) {
+            int j = i;
+            while (j + 1 < list.size() && list.get(j + 1) == list.get(j) + 1) {
+                j++;
+            }
+            if (sb.length() > 0) {
+                sb.append(", ");
+            }
+            sb.append(list.get(i));
+            if (j > i) {
+                sb.append('-').append(list.get(j));
+            }
+            i = j + 1;
+        }
+        return sb.length() == 0 ? "none" : "part " + sb;
+    }
+
+    /** @return the row count in a Parquet file's footer */
+    static long parquetRows(Path p) throws IOException {
+        try (ParquetFileReader r = ParquetFileReader.open(new LocalInputFile(p),
+            ParquetReadOptions.builder(new PlainParquetConfiguration()).withCodecFactory(new PureJavaCodecs()).build())) {
+            return r.getRecordCount();
+        }
+    }
+
+    static String sha256(Path p) throws IOException {
         MessageDigest d = HashingOutputFile.sha256Digest();
         byte[] buf = new byte[1 << 16];
         try (InputStream in = Files.newInputStream(p)) {

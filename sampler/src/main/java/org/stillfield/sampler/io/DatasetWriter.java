@@ -1,5 +1,6 @@
 package org.stillfield.sampler.io;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
@@ -13,7 +14,6 @@ import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -32,25 +32,38 @@ import org.stillfield.sampler.api.SampleBatch;
 import org.stillfield.sampler.api.Vec3;
 import org.stillfield.sampler.api.Version;
 import org.stillfield.sampler.spec.RunSpec;
+import org.stillfield.sampler.spec.Shard;
 
 /**
- * Writes one run as a dataset folder ({@code stillfield-dataset/1}): {@code modes.parquet},
- * {@code points.parquet}, {@code amplitudes.parquet}, {@code fields.parquet} and, last,
- * {@code manifest.json} with each file's row count, size and SHA-256.
+ * Writes one run, or one shard of it, as a dataset folder ({@link Version#DATASET_FORMAT}; layout
+ * in {@link Layout}): {@code modes.parquet}, {@code points.parquet}, per part
+ * {@code amplitudes/part-NNNNN.parquet} and {@code fields/part-NNNNN.parquet}, and, once every
+ * part of the run is present, {@code manifest.json} with each file's row count, size and SHA-256.
  *
- * <p>Every file carries the run's spec text, tool and format version, physical constants,
- * generator, seed, cavity, window, state, sample count, table name and the unit of every column
- * in its Parquet footer, so a single file is self-describing.
+ * <p>Every file carries the run's spec text, run key, tool and format version, physical
+ * constants, generator, seed, cavity, window, state, sample count, part size, table name and the
+ * unit of every column in its Parquet footer (part files also their part index and first sample),
+ * so a single file is self-describing.
  *
- * <p>Everything is written into a hidden staging folder beside the target and renamed into place
- * by {@link #finish()} once the manifest is on disk; with overwrite, an existing dataset is
- * removed only after the new one is in place. {@link #close()} without a successful finish
- * deletes the staging folder, so an interrupted or failed run leaves nothing that looks complete.
+ * <p>Durability: each file is written under a hidden temporary name, forced to disk and renamed
+ * when complete; a part counts as done only when its record ({@code .stillfield/parts/}) is on
+ * disk, written the same way after both of its files. The manifest is written last. A folder
+ * without a manifest is never a complete dataset, and a killed run leaves only finished parts and
+ * temporary files, so re-running the same spec ({@link #plan}) writes just the missing parts.
+ * Since every sample comes from its own random stream, the result does not depend on which
+ * process wrote which part, or when.
  *
- * <p>Batches are streamed straight into the Parquet writers; memory is bounded by one row group
- * per file (64 MiB), not by the sample count. Within {@link #accept} the amplitude table is
- * written on a helper thread while the caller writes the field table; both are done when it
- * returns. Samples must arrive in order from 0 to {@code spec.samples() - 1}.
+ * <p>Shards: processes given the same spec and different {@link Shard}s may write into the same
+ * folder at the same time, on one machine or on a shared file system; each writes its own block
+ * of parts. The run key ({@code .stillfield/run.json}) and the run-wide files are published with
+ * an exclusive link, so the first writer's copy stands; whichever process finds every part done
+ * writes the manifest.
+ *
+ * <p>Use: {@link #plan} (reads the folder, writes nothing), {@link #open()} (prepares it), then
+ * batches for each range of {@link Plan#pending()} in order, through {@link #batches()} or
+ * {@link #accept}, and {@link #finish()}; always {@link #close()}. Memory is bounded by one row
+ * group per table (64 MiB). Within {@link #accept} the amplitude table is written on a helper
+ * thread while the caller writes the field table; both are done when it returns.
  */
 public final class DatasetWriter implements EnsembleSink {
     /** Target size of a row group of the large tables, bytes. */
@@ -60,18 +73,178 @@ public final class DatasetWriter implements EnsembleSink {
 
     private enum State { OPEN, FAILED, FINISHED, CLOSED }
 
+    /** What {@link #finish()} found. */
+    public enum Outcome {
+        /** This process wrote the manifest: the dataset is complete. */
+        COMPLETED,
+        /** The dataset was already complete (another process wrote the manifest). */
+        ALREADY_COMPLETE,
+        /** This process's parts are done; parts of other shards are still missing. */
+        WAITING
+    }
+
+    /**
+     * A range of samples to draw.
+     *
+     * @param firstSample first sample index
+     * @param sampleCount number of samples, ≥ 1
+     */
+    public record Range(long firstSample, long sampleCount) {
+    }
+
+    /** What a folder holds before a run starts. */
+    private enum Found { NOTHING, OURS_INCOMPLETE, COMPLETE, REPLACE }
+
+    /**
+     * What a run into a folder has to do: read from the folder without writing to it, so that
+     * resource checks can refuse a run before anything is written.
+     */
+    public static final class Plan {
+        private final RunSpec spec;
+        private final ModeTable table;
+        private final Path target;
+        private final String runKey;
+        private final long partSamples;
+        private final int partCount;
+        private final Shard shard;
+        private final Found found;
+        private final List<Integer> pendingParts;
+
+        private Plan(RunSpec spec, ModeTable table, Path target, String runKey, long partSamples, int partCount, Found found,
+                     List<Integer> pendingParts) {
+            this.spec = spec;
+            this.table = table;
+            this.target = target;
+            this.runKey = runKey;
+            this.partSamples = partSamples;
+            this.partCount = partCount;
+            this.shard = spec.storage().shard();
+            this.found = found;
+            this.pendingParts = List.copyOf(pendingParts);
+        }
+
+        /** @return the dataset folder (absolute) */
+        public Path folder() {
+            return target;
+        }
+
+        /** @return samples per part (the last part may hold fewer) */
+        public long partSamples() {
+            return partSamples;
+        }
+
+        /** @return number of parts of the whole run */
+        public int partCount() {
+            return partCount;
+        }
+
+        /** @return the shard this process writes */
+        public Shard shard() {
+            return shard;
+        }
+
+        /** @return first part of this shard (inclusive) */
+        public int firstPart() {
+            return shard.firstPart(partCount);
+        }
+
+        /** @return end of this shard's parts (exclusive) */
+        public int endPart() {
+            return shard.endPart(partCount);
+        }
+
+        /** @return the run key (hex SHA-256) */
+        public String runKey() {
+            return runKey;
+        }
+
+        /** @return true when the folder already holds the complete dataset of this run */
+        public boolean complete() {
+            return found == Found.COMPLETE;
+        }
+
+        /** @return true when some of this shard's parts are already present from an earlier attempt */
+        public boolean resuming() {
+            return found == Found.OURS_INCOMPLETE && pendingParts.size() < endPart() - firstPart();
+        }
+
+        /** @return this shard's parts still to write, ascending */
+        public List<Integer> pendingParts() {
+            return pendingParts;
+        }
+
+        /** @return the sample ranges of {@link #pendingParts()}, adjacent parts merged */
+        public List<Range> pending() {
+            List<Range> out = new ArrayList<>();
+            long start = -1;
+            long end = -1;
+            for (int k : pendingParts) {
+                long first = k * partSamples;
+                long last = Math.min(first + partSamples, spec.samples());
+                if (first == end) {
+                    end = last;
+                } else {
+                    if (start >= 0) {
+                        out.add(new Range(start, end - start));
+                    }
+                    start = first;
+                    end = last;
+                }
+            }
+            if (start >= 0) {
+                out.add(new Range(start, end - start));
+            }
+            return out;
+        }
+
+        /** @return number of samples in {@link #pending()} */
+        public long pendingSamples() {
+            return pending().stream().mapToLong(Range::sampleCount).sum();
+        }
+
+        /**
+         * Upper bound of the bytes this plan writes: the raw (uncompressed) values of every
+         * pending part plus 5 % and 1 MiB per file for Parquet's levels, headers and footers, and
+         * the run-wide tables when they are still missing.
+         *
+         * @return bytes
+         */
+        public long estimatedBytes() {
+            long points = spec.allPoints().size();
+            double perSample = Layout.AMPLITUDE_ROW_BYTES * (double) table.size()
+                + Layout.fieldRowBytes(spec.fields().size(), spec.precision()) * (double) points;
+            double bytes = 1.05 * perSample * pendingSamples() + 2.0 * pendingParts.size() * (1 << 20);
+            if (found != Found.COMPLETE) {
+                // modes: 8 ints/doubles + 2 labels + 12 variances per row; points: 11 columns.
+                bytes += 1.05 * (200.0 * table.size() + 100.0 * points) + 2 * (1 << 20) + spec.sourceText().length() * 8.0;
+            }
+            return (long) Math.min(Long.MAX_VALUE / 2, Math.ceil(bytes));
+        }
+
+        /**
+         * Prepares the folder: removes a replaced dataset (manifest first), publishes the run key
+         * and the run-wide tables unless present, and clears this shard's stale temporary files.
+         *
+         * @return the writer
+         * @throws IllegalArgumentException when the folder cannot be created or another run's
+         *     key appeared there meanwhile; the message names {@code output.folder}
+         * @throws IOException when writing fails
+         */
+        public DatasetWriter open() throws IOException {
+            return new DatasetWriter(this);
+        }
+    }
+
+    private final Plan plan;
     private final RunSpec spec;
     private final Path target;
-    private final Path staging;
-    private final boolean overwrite;
     private final List<Field> fields;
+    private final ModeTable table;
     private final int modeCount;
     private final int pointCount;
     private final boolean[] inside;
     private final boolean float32;
-    private final Map<String, RowWriter> writers = new LinkedHashMap<>();
-    private final RowWriter amplitudes;
-    private final RowWriter fieldValues;
+    private final Map<String, String> common;
     private final AmplitudeRow amplitudeRow = new AmplitudeRow();
     private final FieldRow fieldRow;
     private final ExecutorService helper = Executors.newSingleThreadExecutor(r -> {
@@ -79,15 +252,191 @@ public final class DatasetWriter implements EnsembleSink {
         t.setDaemon(true);
         return t;
     });
-    private long nextSample;
+    private final List<Integer> pendingParts;
+    private int nextPending;
+    /** The part being written, or -1. */
+    private int part = -1;
+    private long partFirst;
+    private long partEnd;
+    private long nextSample = -1;
+    private RowWriter amplitudes;
+    private RowWriter fieldValues;
+    private Path amplitudesTemp;
+    private Path fieldsTemp;
     private State state = State.OPEN;
+    private Outcome outcome;
+    private int partsPresent;
 
-    private DatasetWriter(RunSpec spec, ModeTable table, Path target, Path staging, boolean overwrite)
-        throws IOException {
-        this.spec = spec;
-        this.target = target;
-        this.staging = staging;
-        this.overwrite = overwrite;
+    /**
+     * Reads the output folder and decides what a run of {@code spec} there has to do.
+     *
+     * @param spec the run (output folder, fields, points, precision, samples, storage, spec text)
+     * @param table the run's modes, as the engine uses them
+     * @param overwrite replace a dataset or incomplete run of another spec (or the same) in the
+     *     folder; never anything that is not a dataset
+     * @return the plan
+     * @throws IllegalArgumentException when the folder holds something else: not a folder, a
+     *     folder that is no dataset, a dataset or incomplete run of another spec (without
+     *     overwrite), or overwrite with a shard; the message names {@code output.folder}
+     * @throws IllegalStateException when a mode's variance is not finite (names the mode)
+     * @throws IOException when the folder cannot be read
+     */
+    public static Plan plan(RunSpec spec, ModeTable table, boolean overwrite) throws IOException {
+        Objects.requireNonNull(spec, "spec");
+        Objects.requireNonNull(table, "table");
+        Objects.requireNonNull(spec.outputFolder(), "spec.outputFolder");
+        checkVariances(table);
+        Path target = spec.outputFolder().toAbsolutePath().normalize();
+        if (target.getParent() == null) {
+            throw new IllegalArgumentException("output.folder must not be a file-system root: " + target);
+        }
+        long partSamples = Layout.partSamples(spec, table.size());
+        int partCount = Layout.partCount(spec.samples(), partSamples);
+        String key = Layout.runKey(spec.sourceText(), spec.samples(), partSamples);
+        Shard shard = spec.storage().shard();
+        if (overwrite && !shard.isWhole()) {
+            throw new IllegalArgumentException("--overwrite cannot be combined with shard " + shard
+                + " (output.shard or --shard): it would delete the other shards' parts in output.folder " + target
+                + "; remove the folder first, then start the shards");
+        }
+        Found found = inspect(target, key, overwrite);
+        List<Integer> pending = new ArrayList<>();
+        for (int k = shard.firstPart(partCount); k < shard.endPart(partCount); k++) {
+            if (found == Found.COMPLETE) {
+                break;
+            }
+            if (found != Found.OURS_INCOMPLETE || readPartRecord(target, k, key) == null) {
+                pending.add(k);
+            }
+        }
+        return new Plan(spec, table, target, key, partSamples, partCount, found, pending);
+    }
+
+    /**
+     * Shortcut for {@link #plan} then {@link Plan#open()}.
+     *
+     * @param spec the run
+     * @param table its modes
+     * @param overwrite replace another dataset in the folder
+     * @return the writer
+     * @throws IOException when the folder cannot be read or written
+     */
+    public static DatasetWriter create(RunSpec spec, ModeTable table, boolean overwrite) throws IOException {
+        return plan(spec, table, overwrite).open();
+    }
+
+    /** A table with a non-finite or negative variance would write noise of unknown scale: stop. */
+    private static void checkVariances(ModeTable table) {
+        for (int l = 0; l < table.size(); l++) {
+            for (Field f : Field.values()) {
+                double v = table.variance(f, l);
+                double v0 = table.vacuumVariance(f, l);
+                if (!(v >= 0 && v < Double.POSITIVE_INFINITY && v0 >= 0 && v0 < Double.POSITIVE_INFINITY)) {
+                    throw new IllegalStateException("mode " + table.modes().get(l).label() + " (mode " + l + ", f = "
+                        + table.frequency(l) + " Hz) has a non-finite or negative variance of " + f + ": " + v
+                        + " (vacuum " + v0 + ", thermal factor " + table.thermalFactor(l) + "); nothing was written");
+                }
+            }
+        }
+    }
+
+    private static Found inspect(Path target, String key, boolean overwrite) throws IOException {
+        if (!Files.exists(target, LinkOption.NOFOLLOW_LINKS)) {
+            return Found.NOTHING;
+        }
+        if (!Files.isDirectory(target, LinkOption.NOFOLLOW_LINKS)) {
+            throw new IllegalArgumentException("output.folder exists and is not a folder: " + target + "; choose another folder");
+        }
+        boolean hasManifest = Files.isRegularFile(target.resolve(Layout.MANIFEST));
+        boolean hasRun = Files.isRegularFile(target.resolve(Layout.RUN_FILE));
+        if (!hasManifest && !hasRun) {
+            if (onlyState(target)) {
+                // A run killed before it published its key: nothing of value is there.
+                return overwrite ? Found.REPLACE : Found.NOTHING;
+            }
+            throw new IllegalArgumentException("output.folder already exists and is not a dataset (no " + Layout.MANIFEST
+                + " or " + Layout.RUN_FILE + "): " + target + "; it is not replaced even with --overwrite; choose another folder");
+        }
+        if (overwrite) {
+            return Found.REPLACE;
+        }
+        String existing = hasManifest ? keyOf(target.resolve(Layout.MANIFEST)) : keyOf(target.resolve(Layout.RUN_FILE));
+        if (existing == null && hasManifest) {
+            throw new IllegalArgumentException("output.folder " + target + " holds a dataset of another format than "
+                + Version.DATASET_FORMAT + " (no run key in its " + Layout.MANIFEST
+                + "); choose another folder or pass --overwrite to replace it");
+        }
+        if (!key.equals(existing)) {
+            throw new IllegalArgumentException("output.folder " + target + " already holds "
+                + (hasManifest ? "a complete dataset" : "an incomplete run") + " of another spec (run key "
+                + abbreviate(existing) + ", this spec's " + abbreviate(key) + "; a run continues only with the same spec"
+                + " and sample count); choose another folder or pass --overwrite to replace it");
+        }
+        return hasManifest ? Found.COMPLETE : Found.OURS_INCOMPLETE;
+    }
+
+    private static String abbreviate(String key) {
+        return key == null ? "none" : key.substring(0, Math.min(12, key.length()));
+    }
+
+    /** @return the run key in a manifest or run file, or null when it has none or is unreadable */
+    private static String keyOf(Path json) {
+        try {
+            JsonNode n = Layout.JSON.readTree(json.toFile());
+            JsonNode k = n == null ? null : n.get("run_key");
+            return k != null && k.isTextual() ? k.asText() : null;
+        } catch (IOException ex) {
+            return null;
+        }
+    }
+
+    /** @return true when the folder holds nothing but (possibly) the state folder without a run file */
+    private static boolean onlyState(Path target) throws IOException {
+        try (DirectoryStream<Path> s = Files.newDirectoryStream(target)) {
+            for (Path p : s) {
+                if (!p.getFileName().toString().equals(Layout.STATE)) {
+                    return false;
+                }
+            }
+        }
+        return true;
+    }
+
+    /**
+     * @return the record of part k when it is complete: it parses, has this run's key, and every
+     *     file it lists exists with the listed size; null otherwise
+     */
+    static JsonNode readPartRecord(Path target, int k, String key) {
+        Path rec = target.resolve(Layout.partRecord(k));
+        if (!Files.isRegularFile(rec)) {
+            return null;
+        }
+        try {
+            JsonNode n = Layout.JSON.readTree(rec.toFile());
+            if (n == null || !key.equals(n.path("run_key").asText()) || n.path("part").asInt(-1) != k) {
+                return null;
+            }
+            JsonNode files = n.path("files");
+            if (files.size() != 2) {
+                return null;
+            }
+            for (JsonNode f : files) {
+                Path p = target.resolve(f.path("name").asText("")).normalize();
+                if (!p.startsWith(target) || !Files.isRegularFile(p) || Files.size(p) != f.path("bytes").asLong(-1)) {
+                    return null;
+                }
+            }
+            return n;
+        } catch (IOException | RuntimeException ex) {
+            return null;
+        }
+    }
+
+    private DatasetWriter(Plan plan) throws IOException {
+        this.plan = plan;
+        this.spec = plan.spec;
+        this.target = plan.target;
+        this.table = plan.table;
         this.fields = Layout.ordered(spec.fields());
         this.modeCount = table.size();
         List<Vec3> points = spec.allPoints();
@@ -98,236 +447,314 @@ public final class DatasetWriter implements EnsembleSink {
         }
         this.float32 = spec.precision() == RunSpec.Precision.FLOAT32;
         this.fieldRow = new FieldRow(fields.size());
-        Map<String, String> common = Layout.commonFooter(spec, table.cavity(), table.window(), table.state());
-        writeModes(table, common);
-        writePoints(common);
-        this.amplitudes = open(Layout.AMPLITUDES, Layout.amplitudes(), common);
-        this.fieldValues = open(Layout.FIELDS, Layout.fields(spec.fields(), spec.precision()), common);
-    }
-
-    /**
-     * Prepares a dataset for the run in {@code spec.outputFolder()}.
-     *
-     * @param spec the run (output folder, fields, points, precision, sample count, spec text)
-     * @param table the run's modes, as the engine uses them
-     * @param overwrite replace an existing dataset in the output folder (only after the new one is
-     *     complete); a non-empty folder that is not a dataset is never replaced
-     * @return the writer, to be passed to the engine and closed afterwards
-     * @throws IllegalArgumentException when the output folder exists and is not empty (without
-     *     overwrite), is not a dataset, or its parent cannot be written; the message names
-     *     {@code output.folder}
-     * @throws IOException when the first files cannot be written
-     */
-    public static DatasetWriter create(RunSpec spec, ModeTable table, boolean overwrite) throws IOException {
-        Objects.requireNonNull(spec, "spec");
-        Objects.requireNonNull(table, "table");
-        Objects.requireNonNull(spec.outputFolder(), "spec.outputFolder");
-        Path target = spec.outputFolder().toAbsolutePath().normalize();
-        checkTarget(target, overwrite);
-        Path parent = target.getParent();
-        if (parent == null) {
-            throw new IllegalArgumentException("output.folder must not be a file-system root: " + target);
+        this.pendingParts = plan.pendingParts;
+        Map<String, String> c = Layout.commonFooter(spec, table.cavity(), table.window(), table.state());
+        c.put(Layout.KEY_RUN_KEY, plan.runKey);
+        c.put(Layout.KEY_PART_SAMPLES, Long.toString(plan.partSamples));
+        c.put(Layout.KEY_PART_COUNT, Integer.toString(plan.partCount));
+        this.common = c;
+        if (plan.found == Found.COMPLETE) {
+            return;
         }
         try {
-            Files.createDirectories(parent);
+            prepare();
         } catch (IOException ex) {
-            throw new IllegalArgumentException("output.folder: cannot create its parent folder " + parent + ": " + ex, ex);
-        }
-        if (!Files.isDirectory(parent) || !Files.isWritable(parent)) {
-            throw new IllegalArgumentException("output.folder: parent folder is not writable: " + parent);
-        }
-        Path staging;
-        try {
-            staging = createUnique(parent, target.getFileName() + ".partial-");
-        } catch (IOException ex) {
-            throw new IllegalArgumentException("output.folder: cannot create a staging folder in " + parent + ": " + ex, ex);
-        }
-        try {
-            return new DatasetWriter(spec, table, target, staging, overwrite);
-        } catch (IOException | RuntimeException | Error ex) {
-            try {
-                deleteTree(staging);
-            } catch (IOException cleanup) {
-                ex.addSuppressed(cleanup);
-            }
+            helper.shutdown();
+            throw failure(ex);
+        } catch (RuntimeException | Error ex) {
+            helper.shutdown();
             throw ex;
         }
     }
 
-    /** Refuses targets that must not be written or replaced. */
-    private static void checkTarget(Path target, boolean overwrite) throws IOException {
-        if (!Files.exists(target, LinkOption.NOFOLLOW_LINKS)) {
-            return;
+    private void prepare() throws IOException {
+        Path parent = target.getParent();
+        try {
+            Files.createDirectories(parent);
+        } catch (IOException ex) {
+            throw new IllegalArgumentException("output.folder: cannot create its parent folder " + parent + ": " + reason(ex), ex);
         }
-        if (!Files.isDirectory(target)) {
-            throw new IllegalArgumentException("output.folder exists and is not a folder: " + target + "; choose another folder");
+        if (!Files.isDirectory(parent) || !Files.isWritable(parent)) {
+            throw new IllegalArgumentException("output.folder: parent folder is not writable: " + parent);
         }
-        if (isEmpty(target)) {
-            return;
+        if (plan.found == Found.REPLACE) {
+            clear();
         }
-        if (!overwrite) {
-            throw new IllegalArgumentException("output.folder already exists: " + target
-                + "; choose another folder or pass --overwrite");
+        try {
+            Files.createDirectories(target.resolve(Layout.STATE));
+        } catch (IOException ex) {
+            throw new IllegalArgumentException("output.folder: cannot create " + target + ": " + reason(ex), ex);
         }
-        // --overwrite deletes the old folder: only ever do that to a dataset, never to e.g. a home folder.
-        if (!Files.isRegularFile(target.resolve(Layout.MANIFEST))) {
-            throw new IllegalArgumentException("output.folder already exists and is not a dataset (no "
-                + Layout.MANIFEST + "): " + target + "; it is not replaced even with --overwrite; choose another folder");
+        if (!Files.isWritable(target)) {
+            throw new IllegalArgumentException("output.folder is not writable: " + target);
+        }
+        // The run key first: until it exists, the folder holds nothing but the state folder, which
+        // a concurrent shard reads as a fresh start (see inspect).
+        publishRunFile();
+        Files.createDirectories(target.resolve(Layout.PART_RECORDS));
+        Files.createDirectories(target.resolve(Layout.AMPLITUDES));
+        Files.createDirectories(target.resolve(Layout.FIELDS));
+        if (!Files.isRegularFile(target.resolve(Layout.MODES))) {
+            writeOnce(Layout.MODES, this::writeModes);
+        }
+        if (!Files.isRegularFile(target.resolve(Layout.POINTS))) {
+            writeOnce(Layout.POINTS, this::writePoints);
+        }
+        for (int k : pendingParts) {
+            removeTemps(k);
         }
     }
 
-    private static boolean isEmpty(Path dir) throws IOException {
-        try (DirectoryStream<Path> s = Files.newDirectoryStream(dir)) {
-            return !s.iterator().hasNext();
+    /** Removes a replaced dataset: its manifest first, so that it never looks complete half-deleted. */
+    private void clear() throws IOException {
+        Files.deleteIfExists(target.resolve(Layout.MANIFEST));
+        syncFolder(target);
+        try (DirectoryStream<Path> s = Files.newDirectoryStream(target)) {
+            for (Path p : s) {
+                deleteTree(p);
+            }
         }
     }
 
-    /** A new hidden sibling folder; created with the default permissions (unlike a temp dir). */
-    private static Path createUnique(Path parent, String stem) throws IOException {
-        for (int attempt = 0; ; attempt++) {
-            Path p = parent.resolve("." + stem + ProcessHandle.current().pid() + "-" + System.nanoTime() + "-"
-                + UNIQUE.incrementAndGet());
-            try {
-                return Files.createDirectory(p);
-            } catch (FileAlreadyExistsException ex) {
-                if (attempt > 100) {
-                    throw ex;
+    private ObjectNode runNode() {
+        ObjectNode m = Layout.JSON.createObjectNode();
+        m.put("format", Version.DATASET_FORMAT);
+        m.put("version", Version.VERSION);
+        m.put("name", spec.name());
+        m.put("run_key", plan.runKey);
+        m.put("seed", spec.seed());
+        m.put("samples", spec.samples());
+        m.put("part_samples", plan.partSamples);
+        m.put("part_count", plan.partCount);
+        m.put("modes", modeCount);
+        m.put("points", pointCount);
+        ArrayNode f = m.putArray("fields");
+        fields.forEach(x -> f.add(x.name()));
+        m.put("precision", spec.precision().name().toLowerCase(Locale.ROOT));
+        m.put("compression", RowWriter.CODEC.name());
+        return m;
+    }
+
+    /** The run key goes first; a concurrent shard with another spec is refused here at the latest. */
+    private void publishRunFile() throws IOException {
+        Path run = target.resolve(Layout.RUN_FILE);
+        if (!Files.isRegularFile(run)) {
+            Path tmp = temp(run);
+            writeJson(tmp, runNode());
+            linkOnce(tmp, run);
+        }
+        String key = keyOf(run);
+        if (!plan.runKey.equals(key)) {
+            throw new IllegalArgumentException("output.folder " + target + " was claimed by a run of another spec (run key "
+                + abbreviate(key) + ", this spec's " + abbreviate(plan.runKey) + "); choose another folder");
+        }
+    }
+
+    @FunctionalInterface
+    private interface TableBody {
+        void write(RowWriter w) throws IOException;
+    }
+
+    /** Writes a run-wide table under a temporary name and links it into place unless another process was first. */
+    private void writeOnce(String name, TableBody body) throws IOException {
+        Path dest = target.resolve(name);
+        Path tmp = temp(dest);
+        Layout.Table t = name.equals(Layout.MODES) ? Layout.modes() : Layout.points();
+        try (RowWriter w = new RowWriter(tmp, t.schema(), Layout.footer(common, t), ROW_GROUP_BYTES)) {
+            body.write(w);
+        } catch (IOException | RuntimeException ex) {
+            Files.deleteIfExists(tmp);
+            throw ex;
+        }
+        linkOnce(tmp, dest);
+    }
+
+    /**
+     * Publishes a complete file under its final name only if that name is free (a hard link is
+     * created atomically or not at all, also over NFS), so run-wide files are written once; where
+     * links are not supported, a rename that does not replace.
+     */
+    private static void linkOnce(Path tmp, Path dest) throws IOException {
+        try {
+            Files.createLink(dest, tmp);
+        } catch (FileAlreadyExistsException ex) {
+            // Another process published it first; its copy stands.
+        } catch (UnsupportedOperationException | IOException ex) {
+            if (!Files.exists(dest)) {
+                try {
+                    Files.move(tmp, dest);
+                } catch (FileAlreadyExistsException again) {
+                    // Lost the race; fine.
+                }
+            }
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
+        syncFolder(dest.getParent());
+    }
+
+    /** A hidden temporary name beside the destination, unique to this process and call. */
+    private static Path temp(Path dest) {
+        return dest.resolveSibling("." + dest.getFileName() + "." + ProcessHandle.current().pid() + "-" + System.nanoTime()
+            + "-" + UNIQUE.incrementAndGet() + ".tmp");
+    }
+
+    /** Removes temporary files of part k left by a killed attempt (this shard owns part k). */
+    private void removeTemps(int k) throws IOException {
+        for (String t : List.of(Layout.AMPLITUDES, Layout.FIELDS)) {
+            Path dest = target.resolve(Layout.part(t, k));
+            String prefix = "." + dest.getFileName() + ".";
+            try (DirectoryStream<Path> s = Files.newDirectoryStream(dest.getParent(), prefix + "*.tmp")) {
+                for (Path p : s) {
+                    Files.deleteIfExists(p);
                 }
             }
         }
     }
 
-    private RowWriter open(String name, Layout.Table table, Map<String, String> common) throws IOException {
-        RowWriter w = new RowWriter(staging.resolve(name), table.schema(), Layout.footer(common, table), ROW_GROUP_BYTES);
-        writers.put(name, w);
-        return w;
+    private void writeModes(RowWriter w) throws IOException {
+        for (int l = 0; l < modeCount; l++) {
+            int index = l;
+            Mode m = table.modes().get(l);
+            w.write(r -> {
+                r.addInt(index);
+                r.addString(m.label());
+                r.addString(m.family());
+                r.addInt(m.i1());
+                r.addInt(m.i2());
+                r.addInt(m.i3());
+                r.addInt(m.orientation());
+                r.addDouble(m.k());
+                r.addDouble(table.omega(index));
+                r.addDouble(table.frequency(index));
+                r.addDouble(table.weight(index));
+                r.addDouble(table.thermalFactor(index));
+                for (Field f : Field.values()) {
+                    r.addDouble(table.vacuumVariance(f, index));
+                }
+                for (Field f : Field.values()) {
+                    r.addDouble(table.variance(f, index));
+                }
+            });
+        }
     }
 
-    private void writeModes(ModeTable table, Map<String, String> common) throws IOException {
-        try (RowWriter w = open(Layout.MODES, Layout.modes(), common)) {
-            for (int l = 0; l < modeCount; l++) {
-                int index = l;
-                Mode m = table.modes().get(l);
-                w.write(r -> {
-                    r.addInt(index);
-                    r.addString(m.label());
-                    r.addString(m.family());
-                    r.addInt(m.i1());
-                    r.addInt(m.i2());
-                    r.addInt(m.i3());
-                    r.addInt(m.orientation());
-                    r.addDouble(m.k());
-                    r.addDouble(table.omega(index));
-                    r.addDouble(table.frequency(index));
-                    r.addDouble(table.weight(index));
-                    r.addDouble(table.thermalFactor(index));
-                    for (Field f : Field.values()) {
-                        r.addDouble(table.vacuumVariance(f, index));
-                    }
-                    for (Field f : Field.values()) {
-                        r.addDouble(table.variance(f, index));
-                    }
+    private void writePoints(RowWriter w) throws IOException {
+        int global = 0;
+        for (PointSet set : spec.pointSets()) {
+            int[] dims = set.dims();
+            String kind = set.kind().name().toLowerCase(Locale.ROOT);
+            for (int n = 0; n < set.size(); n++) {
+                int p = global++;
+                int idx = n;
+                Vec3 r = set.points().get(n);
+                // Grid index (i, j, k) with x fastest; a line's index is i; a lone point is (0, 0, 0).
+                int i = idx % dims[0];
+                int j = (idx / dims[0]) % dims[1];
+                int k = idx / (dims[0] * dims[1]);
+                w.write(row -> {
+                    row.addInt(p);
+                    row.addString(set.name());
+                    row.addString(kind);
+                    row.addInt(idx);
+                    row.addInt(i);
+                    row.addInt(j);
+                    row.addInt(k);
+                    row.addDouble(r.x());
+                    row.addDouble(r.y());
+                    row.addDouble(r.z());
+                    row.addBoolean(inside[p]);
                 });
             }
         }
     }
 
-    private void writePoints(Map<String, String> common) throws IOException {
-        try (RowWriter w = open(Layout.POINTS, Layout.points(), common)) {
-            int global = 0;
-            for (PointSet set : spec.pointSets()) {
-                int[] dims = set.dims();
-                String kind = set.kind().name().toLowerCase(Locale.ROOT);
-                for (int n = 0; n < set.size(); n++) {
-                    int p = global++;
-                    int idx = n;
-                    Vec3 r = set.points().get(n);
-                    // Grid index (i, j, k) with x fastest; a line's index is i; a lone point is (0, 0, 0).
-                    int i = idx % dims[0];
-                    int j = (idx / dims[0]) % dims[1];
-                    int k = idx / (dims[0] * dims[1]);
-                    w.write(row -> {
-                        row.addInt(p);
-                        row.addString(set.name());
-                        row.addString(kind);
-                        row.addInt(idx);
-                        row.addInt(i);
-                        row.addInt(j);
-                        row.addInt(k);
-                        row.addDouble(r.x());
-                        row.addDouble(r.y());
-                        row.addDouble(r.z());
-                        row.addBoolean(inside[p]);
-                    });
-                }
-            }
-        }
+    /** @return the plan this writer carries out */
+    public Plan plan() {
+        return plan;
     }
 
     /**
-     * Streams one batch into {@code amplitudes.parquet} and {@code fields.parquet}.
+     * A view that passes batches to {@link #accept} and ignores {@code finish()}, for handing one
+     * pending range at a time to the engine (which finishes its sink after each range); call
+     * {@link #finish()} on the writer after the last range.
      *
-     * @param batch the next samples, starting where the previous batch ended
-     * @throws IllegalStateException when the batch is out of order, has the wrong shape or the
-     *     writer is finished or failed
-     * @throws IOException when writing fails
+     * @return the view
+     */
+    public EnsembleSink batches() {
+        return new EnsembleSink() {
+            @Override
+            public void accept(SampleBatch batch) throws IOException {
+                DatasetWriter.this.accept(batch);
+            }
+
+            @Override
+            public void finish() {
+                // The writer is finished once, after all ranges.
+            }
+        };
+    }
+
+    /**
+     * Streams one batch into the part files. Batches cover {@link Plan#pending()} in order: a
+     * part starts at its first sample, and samples follow each other within a range.
+     *
+     * @param batch the next samples
+     * @throws IllegalStateException when the batch is out of order, outside the pending parts,
+     *     has the wrong shape or a non-finite amplitude (named by mode and sample), or the writer
+     *     is finished or failed
+     * @throws IOException when writing fails; the message names the folder
      */
     @Override
     public void accept(SampleBatch batch) throws IOException {
         requireOpen();
         try {
             check(batch);
-            if (pointCount == 0) {
-                writeAmplitudes(batch);
-            } else {
-                // The two tables are independent: write them on two threads. Both finish before
-                // accept returns, so the shared batch arrays are never read afterwards.
-                Future<Void> amp = helper.submit(() -> {
-                    writeAmplitudes(batch);
-                    return null;
-                });
-                Exception failure = null;
-                try {
-                    writeFields(batch);
-                } catch (IOException | RuntimeException ex) {
-                    failure = ex;
+            int s = 0;
+            while (s < batch.size()) {
+                long sample = batch.firstSample() + s;
+                if (part < 0) {
+                    startPart(sample);
                 }
-                try {
-                    await(amp);
-                } catch (IOException | RuntimeException ex) {
-                    if (failure == null) {
-                        failure = ex;
-                    } else {
-                        failure.addSuppressed(ex);
-                    }
-                }
-                if (failure instanceof IOException) {
-                    throw (IOException) failure;
-                }
-                if (failure != null) {
-                    throw (RuntimeException) failure;
+                int n = (int) Math.min(batch.size() - s, partEnd - sample);
+                writeSegment(batch, s, n);
+                s += n;
+                nextSample = sample + n;
+                if (nextSample == partEnd) {
+                    endPart();
                 }
             }
-            nextSample += batch.size();
-        } catch (IOException | RuntimeException | Error ex) {
+        } catch (IOException ex) {
             state = State.FAILED;
+            throw failure(ex);
+        } catch (RuntimeException | Error ex) {
+            state = State.FAILED;
+            IOException io = ioCause(ex);
+            if (io != null) {
+                throw failure(io);
+            }
             throw ex;
         }
     }
 
     private void check(SampleBatch batch) {
-        if (batch.firstSample() != nextSample) {
-            throw new IllegalStateException("batch starts at sample " + batch.firstSample() + ", expected " + nextSample);
-        }
-        if (nextSample + batch.size() > spec.samples()) {
-            throw new IllegalStateException("batch ends at sample " + (nextSample + batch.size() - 1)
-                + ", beyond samples = " + spec.samples());
+        if (part >= 0 && batch.firstSample() != nextSample) {
+            throw new IllegalStateException("batch starts at sample " + batch.firstSample() + ", expected " + nextSample
+                + " (part " + part + " is not finished)");
         }
         for (int s = 0; s < batch.size(); s++) {
-            long sample = nextSample + s;
-            if (batch.q(s).length != modeCount || batch.e(s).length != modeCount) {
-                throw new IllegalStateException("sample " + sample + " has " + batch.q(s).length + " q and "
-                    + batch.e(s).length + " e amplitudes, the mode table has " + modeCount);
+            long sample = batch.firstSample() + s;
+            double[] q = batch.q(s);
+            double[] e = batch.e(s);
+            if (q.length != modeCount || e.length != modeCount) {
+                throw new IllegalStateException("sample " + sample + " has " + q.length + " q and " + e.length
+                    + " e amplitudes, the mode table has " + modeCount);
+            }
+            for (int l = 0; l < modeCount; l++) {
+                if (!Double.isFinite(q[l]) || !Double.isFinite(e[l])) {
+                    throw new IllegalStateException("non-finite amplitude of mode " + table.modes().get(l).label() + " (mode "
+                        + l + ") in sample " + sample + ": q = " + q[l] + ", e = " + e[l] + "; the run is stopped");
+                }
             }
             if (pointCount == 0) {
                 continue;
@@ -342,9 +769,73 @@ public final class DatasetWriter implements EnsembleSink {
         }
     }
 
-    private void writeAmplitudes(SampleBatch batch) throws IOException {
-        for (int s = 0; s < batch.size(); s++) {
-            amplitudeRow.sample = nextSample + s;
+    private void startPart(long sample) throws IOException {
+        if (nextPending >= pendingParts.size()) {
+            throw new IllegalStateException("batch at sample " + sample + " lies beyond this writer's parts "
+                + describeParts());
+        }
+        int k = pendingParts.get(nextPending);
+        long first = k * plan.partSamples;
+        if (sample != first) {
+            throw new IllegalStateException("batch starts at sample " + sample + ", expected " + first
+                + ", the first sample of the next part to write (" + k + ")");
+        }
+        part = k;
+        partFirst = first;
+        partEnd = Math.min(first + plan.partSamples, spec.samples());
+        Map<String, String> footer = new java.util.LinkedHashMap<>(common);
+        footer.put(Layout.KEY_PART, Integer.toString(k));
+        footer.put(Layout.KEY_FIRST_SAMPLE, Long.toString(partFirst));
+        footer.put(Layout.KEY_SAMPLES_IN_PART, Long.toString(partEnd - partFirst));
+        amplitudesTemp = temp(target.resolve(Layout.part(Layout.AMPLITUDES, k)));
+        fieldsTemp = temp(target.resolve(Layout.part(Layout.FIELDS, k)));
+        Layout.Table at = Layout.amplitudes();
+        Layout.Table ft = Layout.fields(spec.fields(), spec.precision());
+        amplitudes = new RowWriter(amplitudesTemp, at.schema(), Layout.footer(footer, at), ROW_GROUP_BYTES);
+        fieldValues = new RowWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES);
+    }
+
+    private String describeParts() {
+        return plan.pendingParts.isEmpty() ? "(none pending)" : "(parts " + plan.pendingParts + ")";
+    }
+
+    private void writeSegment(SampleBatch batch, int from, int count) throws IOException {
+        if (pointCount == 0) {
+            writeAmplitudes(batch, from, count);
+            return;
+        }
+        // The two tables are independent: write them on two threads. Both finish before this
+        // returns, so the shared batch arrays are never read afterwards.
+        Future<Void> amp = helper.submit(() -> {
+            writeAmplitudes(batch, from, count);
+            return null;
+        });
+        Exception failure = null;
+        try {
+            writeFields(batch, from, count);
+        } catch (IOException | RuntimeException ex) {
+            failure = ex;
+        }
+        try {
+            await(amp);
+        } catch (IOException | RuntimeException ex) {
+            if (failure == null) {
+                failure = ex;
+            } else {
+                failure.addSuppressed(ex);
+            }
+        }
+        if (failure instanceof IOException) {
+            throw (IOException) failure;
+        }
+        if (failure != null) {
+            throw (RuntimeException) failure;
+        }
+    }
+
+    private void writeAmplitudes(SampleBatch batch, int from, int count) throws IOException {
+        for (int s = from; s < from + count; s++) {
+            amplitudeRow.sample = batch.firstSample() + s;
             amplitudeRow.q = batch.q(s);
             amplitudeRow.e = batch.e(s);
             for (int l = 0; l < modeCount; l++) {
@@ -354,17 +845,55 @@ public final class DatasetWriter implements EnsembleSink {
         }
     }
 
-    private void writeFields(SampleBatch batch) throws IOException {
-        for (int s = 0; s < batch.size(); s++) {
+    private void writeFields(SampleBatch batch, int from, int count) throws IOException {
+        for (int s = from; s < from + count; s++) {
             for (int f = 0; f < fields.size(); f++) {
                 fieldRow.values[f] = batch.values(fields.get(f), s);
             }
-            fieldRow.sample = nextSample + s;
+            fieldRow.sample = batch.firstSample() + s;
             for (int p = 0; p < pointCount; p++) {
                 fieldRow.point = p;
                 fieldValues.write(fieldRow);
             }
         }
+    }
+
+    /** Closes the part's files (forced to disk), renames them into place, then writes its record. */
+    private void endPart() throws IOException {
+        amplitudes.close();
+        fieldValues.close();
+        ObjectNode rec = Layout.JSON.createObjectNode();
+        rec.put("run_key", plan.runKey);
+        rec.put("part", part);
+        rec.put("first_sample", partFirst);
+        rec.put("samples", partEnd - partFirst);
+        ArrayNode files = rec.putArray("files");
+        String[] names = {Layout.part(Layout.AMPLITUDES, part), Layout.part(Layout.FIELDS, part)};
+        RowWriter[] writers = {amplitudes, fieldValues};
+        Path[] temps = {amplitudesTemp, fieldsTemp};
+        for (int i = 0; i < 2; i++) {
+            Path dest = target.resolve(names[i]);
+            // A final name left by a killed attempt (renamed, but no record yet) is replaced.
+            Files.move(temps[i], dest, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            ObjectNode o = files.addObject();
+            o.put("name", names[i]);
+            o.put("rows", writers[i].rows());
+            o.put("bytes", writers[i].file().length());
+            o.put("sha256", writers[i].file().sha256());
+        }
+        syncFolder(target.resolve(Layout.AMPLITUDES));
+        syncFolder(target.resolve(Layout.FIELDS));
+        Path record = target.resolve(Layout.partRecord(part));
+        Path tmp = temp(record);
+        writeJson(tmp, rec);
+        Files.move(tmp, record, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        syncFolder(record.getParent());
+        amplitudes = null;
+        fieldValues = null;
+        amplitudesTemp = null;
+        fieldsTemp = null;
+        part = -1;
+        nextPending++;
     }
 
     /** Waits for the helper even when interrupted: returning early would let it race with close(). */
@@ -399,94 +928,114 @@ public final class DatasetWriter implements EnsembleSink {
     }
 
     /**
-     * Closes the tables, writes {@code manifest.json} and renames the dataset into place.
+     * Checks that this writer's parts are all written, then writes {@code manifest.json} if every
+     * part of the run is present (see {@link #outcome()}).
      *
-     * @throws IllegalStateException when fewer samples than {@code spec.samples()} arrived
-     * @throws IOException when writing or renaming fails (nothing is left in the target then,
-     *     except a replaced dataset that is restored)
+     * @throws IllegalStateException when a pending part was not (fully) written
+     * @throws IOException when writing fails; the message names the folder
      */
     @Override
     public void finish() throws IOException {
         requireOpen();
         try {
-            if (nextSample != spec.samples()) {
-                throw new IllegalStateException("dataset received " + nextSample + " samples, the spec asks for samples = "
-                    + spec.samples());
+            if (part >= 0 || nextPending != pendingParts.size()) {
+                long missing = part >= 0 ? part : pendingParts.get(nextPending);
+                throw new IllegalStateException("dataset writer received only part of its samples: part " + missing
+                    + " of " + describeParts() + " is not complete");
             }
             helper.shutdown();
-            for (RowWriter w : writers.values()) {
-                w.close();
+            if (plan.found == Found.COMPLETE) {
+                outcome = Outcome.ALREADY_COMPLETE;
+                partsPresent = plan.partCount;
+            } else {
+                outcome = completeIfReady();
             }
-            writeManifest();
-            publish();
             state = State.FINISHED;
-        } catch (IOException | RuntimeException | Error ex) {
+        } catch (IOException ex) {
+            state = State.FAILED;
+            throw failure(ex);
+        } catch (RuntimeException | Error ex) {
             state = State.FAILED;
             throw ex;
         }
     }
 
-    private void writeManifest() throws IOException {
-        ObjectNode m = Layout.JSON.createObjectNode();
-        m.put("format", Version.DATASET_FORMAT);
-        m.put("version", Version.VERSION);
-        m.put("name", spec.name());
-        m.put("seed", spec.seed());
-        m.put("samples", spec.samples());
-        m.put("modes", modeCount);
-        m.put("points", pointCount);
-        ArrayNode f = m.putArray("fields");
-        fields.forEach(x -> f.add(x.name()));
-        m.put("precision", spec.precision().name().toLowerCase(Locale.ROOT));
-        m.put("compression", RowWriter.CODEC.name());
-        ArrayNode files = m.putArray("files");
-        for (Map.Entry<String, RowWriter> e : writers.entrySet()) {
-            ObjectNode o = files.addObject();
-            o.put("name", e.getKey());
-            o.put("rows", e.getValue().rows());
-            o.put("bytes", e.getValue().file().length());
-            o.put("sha256", e.getValue().file().sha256());
+    /** Writes the manifest when every part's record is present. */
+    private Outcome completeIfReady() throws IOException {
+        Path manifest = target.resolve(Layout.MANIFEST);
+        if (Files.isRegularFile(manifest)) {
+            partsPresent = plan.partCount;
+            return Outcome.ALREADY_COMPLETE;
         }
-        byte[] bytes = Layout.JSON.writerWithDefaultPrettyPrinter().writeValueAsBytes(m);
-        try (FileChannel ch = FileChannel.open(staging.resolve(Layout.MANIFEST), StandardOpenOption.CREATE_NEW,
-            StandardOpenOption.WRITE)) {
+        List<JsonNode> records = new ArrayList<>();
+        for (int k = 0; k < plan.partCount; k++) {
+            JsonNode r = readPartRecord(target, k, plan.runKey);
+            if (r != null) {
+                records.add(r);
+            }
+        }
+        partsPresent = records.size();
+        if (records.size() < plan.partCount) {
+            return Outcome.WAITING;
+        }
+        ObjectNode m = runNode();
+        ArrayNode files = m.putArray("files");
+        for (String name : Layout.COMMON) {
+            Path p = target.resolve(name);
+            ObjectNode o = files.addObject();
+            o.put("name", name);
+            o.put("rows", Dataset.parquetRows(p));
+            o.put("bytes", Files.size(p));
+            o.put("sha256", Dataset.sha256(p));
+        }
+        for (JsonNode r : records) {
+            for (JsonNode f : r.path("files")) {
+                ObjectNode o = files.addObject();
+                o.put("name", f.path("name").asText());
+                o.put("part", r.path("part").asInt());
+                o.put("first_sample", r.path("first_sample").asLong());
+                o.put("samples", r.path("samples").asLong());
+                o.put("rows", f.path("rows").asLong());
+                o.put("bytes", f.path("bytes").asLong());
+                o.put("sha256", f.path("sha256").asText());
+            }
+        }
+        Path tmp = temp(manifest);
+        writeJson(tmp, m);
+        try {
+            Files.createLink(manifest, tmp);
+        } catch (FileAlreadyExistsException ex) {
+            Files.deleteIfExists(tmp);
+            return Outcome.ALREADY_COMPLETE;
+        } catch (UnsupportedOperationException | IOException ex) {
+            Files.move(tmp, manifest, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        }
+        Files.deleteIfExists(tmp);
+        syncFolder(target);
+        return Outcome.COMPLETED;
+    }
+
+    /** @return what {@link #finish()} found; null before it */
+    public Outcome outcome() {
+        return outcome;
+    }
+
+    /** @return number of parts of the run present after {@link #finish()} */
+    public int partsPresent() {
+        return partsPresent;
+    }
+
+    private static void writeJson(Path file, ObjectNode node) throws IOException {
+        byte[] bytes = Layout.JSON.writerWithDefaultPrettyPrinter().writeValueAsBytes(node);
+        try (FileChannel ch = FileChannel.open(file, StandardOpenOption.CREATE_NEW, StandardOpenOption.WRITE)) {
             ByteBuffer buf = ByteBuffer.wrap(bytes);
             while (buf.hasRemaining()) {
                 ch.write(buf);
             }
             ch.force(true);
-        }
-    }
-
-    /** Atomic rename of the staging folder onto the target; an old dataset is moved aside first. */
-    private void publish() throws IOException {
-        Path parent = target.getParent();
-        if (Files.exists(target, LinkOption.NOFOLLOW_LINKS)) {
-            // Re-check: the folder may have been filled since create().
-            checkTarget(target, overwrite);
-            Path old = createUnique(parent, target.getFileName() + ".old-");
-            Files.delete(old);
-            Files.move(target, old, StandardCopyOption.ATOMIC_MOVE);
-            try {
-                Files.move(staging, target, StandardCopyOption.ATOMIC_MOVE);
-            } catch (IOException ex) {
-                try {
-                    Files.move(old, target, StandardCopyOption.ATOMIC_MOVE);
-                } catch (IOException restore) {
-                    ex.addSuppressed(restore);
-                }
-                throw ex;
-            }
-            syncFolder(parent);
-            try {
-                deleteTree(old);
-            } catch (IOException ex) {
-                throw new IOException("dataset written to " + target + ", but the replaced folder " + old
-                    + " could not be removed: " + ex, ex);
-            }
-        } else {
-            Files.move(staging, target, StandardCopyOption.ATOMIC_MOVE);
-            syncFolder(parent);
+        } catch (IOException ex) {
+            Files.deleteIfExists(file);
+            throw ex;
         }
     }
 
@@ -499,31 +1048,71 @@ public final class DatasetWriter implements EnsembleSink {
         }
     }
 
+    /** @return the first IOException among a throwable's causes, or null */
+    private static IOException ioCause(Throwable t) {
+        for (Throwable c = t; c != null; c = c.getCause()) {
+            if (c instanceof IOException) {
+                return (IOException) c;
+            }
+        }
+        return null;
+    }
+
+    private static boolean noSpace(Throwable t) {
+        for (Throwable c = t; c != null; c = c.getCause()) {
+            String m = c.getMessage();
+            if (m != null && (m.contains("No space left") || m.contains("Disk quota exceeded"))) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    private static String reason(Throwable t) {
+        String m = t.getMessage();
+        return t.getClass().getSimpleName() + (m == null ? "" : ": " + m);
+    }
+
+    /** One line naming the folder and, when the disk is full, saying so. */
+    private IOException failure(IOException ex) {
+        if (ex.getMessage() != null && ex.getMessage().startsWith("cannot write dataset in ")) {
+            return ex;
+        }
+        String what = noSpace(ex) ? "no space left on device (" + reason(ex) + ")" : reason(ex);
+        return new IOException("cannot write dataset in " + target + ": " + what
+            + "; finished parts are kept, re-run the same spec to complete the dataset", ex);
+    }
+
     /**
-     * Releases the writers; without a successful {@link #finish()}, deletes everything written.
+     * Releases the writers and deletes this process's unfinished temporary files; finished parts
+     * stay, for a later run to resume from.
      *
-     * @throws IOException when the staging folder cannot be removed
+     * @throws IOException when a temporary file cannot be removed
      */
     @Override
     public void close() throws IOException {
-        if (state == State.FINISHED || state == State.CLOSED) {
-            state = State.CLOSED;
-            helper.shutdown();
+        if (state == State.CLOSED) {
             return;
         }
         state = State.CLOSED;
         helper.shutdown();
-        for (RowWriter w : writers.values()) {
-            try {
-                w.close();
-            } catch (IOException | RuntimeException ex) {
-                // The run already failed; its half-written files are deleted below.
+        for (RowWriter w : new RowWriter[] {amplitudes, fieldValues}) {
+            if (w != null) {
+                try {
+                    w.close();
+                } catch (IOException | RuntimeException ex) {
+                    // The run already failed; its half-written files are deleted below.
+                }
             }
         }
-        deleteTree(staging);
+        for (Path t : new Path[] {amplitudesTemp, fieldsTemp}) {
+            if (t != null) {
+                Files.deleteIfExists(t);
+            }
+        }
     }
 
-    /** @return the folder the dataset is renamed to by {@link #finish()} */
+    /** @return the dataset folder */
     public Path folder() {
         return target;
     }

@@ -8,6 +8,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.regex.Pattern;
 import org.apache.parquet.schema.LogicalTypeAnnotation;
 import org.apache.parquet.schema.MessageType;
 import org.apache.parquet.schema.PrimitiveType.PrimitiveTypeName;
@@ -23,16 +24,132 @@ import org.stillfield.sampler.spec.RunSpec;
 
 /**
  * The dataset layout ({@link Version#DATASET_FORMAT}): file names, table schemas with the unit
- * of every column, and the footer metadata every file carries.
+ * of every column, the footer metadata every file carries, part sizes and the run key.
+ *
+ * <pre>
+ * DATASET/manifest.json                      written last; lists every file below
+ *         modes.parquet, points.parquet      one per run
+ *         amplitudes/part-00000.parquet ...  one per part: samples [k·S, min((k+1)·S, N))
+ *         fields/part-00000.parquet ...
+ *         .stillfield/run.json               the run key, written first (resume, shards)
+ *         .stillfield/parts/part-00000.json  one per finished part: its files' rows, bytes, SHA-256
+ * </pre>
+ * Files in progress carry a hidden temporary name ({@code .part-00003.parquet.*.tmp}) that
+ * neither a {@code *.parquet} glob nor a directory reader (which skip names starting with '.')
+ * picks up, and are renamed when complete.
  */
 final class Layout {
     static final String MODES = "modes.parquet";
     static final String POINTS = "points.parquet";
-    static final String AMPLITUDES = "amplitudes.parquet";
-    static final String FIELDS = "fields.parquet";
+    static final String AMPLITUDES = "amplitudes";
+    static final String FIELDS = "fields";
     static final String MANIFEST = "manifest.json";
-    /** The Parquet files of a dataset, in the order the manifest lists them. */
-    static final List<String> FILES = List.of(MODES, POINTS, AMPLITUDES, FIELDS);
+    /** The files of a dataset that are not split into parts. */
+    static final List<String> COMMON = List.of(MODES, POINTS);
+    /** Hidden folder for the run key and per-part records; never read as data. */
+    static final String STATE = ".stillfield";
+    static final String RUN_FILE = STATE + "/run.json";
+    static final String PART_RECORDS = STATE + "/parts";
+    /** A part file's name inside the dataset folder. */
+    static final Pattern PART_FILE = Pattern.compile("(amplitudes|fields)/part-(\\d{5,9})\\.parquet");
+    /** Target raw (uncompressed) size of a part's larger table under the default part size, bytes. */
+    static final long TARGET_PART_BYTES = 200_000_000L;
+    /** Most parts a run may have: resume and the manifest look at every part's record. */
+    static final int MAX_PARTS = 100_000;
+    /** Raw bytes of one amplitude row: sample (int64), mode (int32), q, e (double). */
+    static final long AMPLITUDE_ROW_BYTES = 8 + 4 + 8 + 8;
+
+    /** @return the name of part k of a table ({@link #AMPLITUDES} or {@link #FIELDS}) */
+    static String part(String table, int k) {
+        return table + "/" + String.format(java.util.Locale.ROOT, "part-%05d.parquet", k);
+    }
+
+    /** @return the name of the record written when part k is complete */
+    static String partRecord(int k) {
+        return PART_RECORDS + "/" + String.format(java.util.Locale.ROOT, "part-%05d.json", k);
+    }
+
+    /** @return raw bytes of one field row: sample, point and 3 components per field */
+    static long fieldRowBytes(int fieldCount, RunSpec.Precision precision) {
+        return 8 + 4 + 3L * fieldCount * (precision == RunSpec.Precision.FLOAT32 ? 4 : 8);
+    }
+
+    /**
+     * The default part size: as many samples as keep the larger of a part's two tables near
+     * {@link #TARGET_PART_BYTES} raw, at least one, and enough that the run has at most
+     * {@link #MAX_PARTS} parts; never more than the run has.
+     */
+    static long partSamples(RunSpec spec, int modes) {
+        long samples = spec.samples();
+        long given = spec.storage().partSamples();
+        if (given > 0) {
+            return Math.min(given, samples);
+        }
+        long points = spec.allPoints().size();
+        long perSample = Math.max(AMPLITUDE_ROW_BYTES * modes, fieldRowBytes(spec.fields().size(), spec.precision()) * points);
+        long atLeast = (samples + MAX_PARTS - 1) / MAX_PARTS;
+        return Math.max(atLeast, Math.max(1, Math.min(samples, TARGET_PART_BYTES / Math.max(1, perSample))));
+    }
+
+    /** @return number of parts of a run of {@code samples} samples, parts of {@code partSamples} */
+    static int partCount(long samples, long partSamples) {
+        long k = (samples + partSamples - 1) / partSamples;
+        if (k > MAX_PARTS) {
+            throw new IllegalArgumentException("output.part_samples = " + partSamples + " splits " + samples
+                + " samples into " + k + " parts, more than " + MAX_PARTS + "; use larger parts");
+        }
+        return (int) k;
+    }
+
+    /**
+     * The run key: SHA-256 of the spec's settings that decide the dataset's content (the parsed
+     * YAML without output.folder, output.shard, threads and limits, which change where and how a
+     * run goes but not one value it writes), the effective sample count and part size, and the
+     * format. Two processes may write into one folder only with equal keys.
+     */
+    static String runKey(String specText, long samples, long partSamples) {
+        Object doc = new org.snakeyaml.engine.v2.api.Load(org.snakeyaml.engine.v2.api.LoadSettings.builder().build())
+            .loadFromString(specText);
+        Object tree = sorted(doc);
+        if (tree instanceof Map) {
+            @SuppressWarnings("unchecked")
+            Map<String, Object> m = (Map<String, Object>) tree;
+            m.remove("threads");
+            m.remove("limits");
+            Object out = m.get("output");
+            if (out instanceof Map) {
+                ((Map<?, ?>) out).remove("folder");
+                ((Map<?, ?>) out).remove("shard");
+                ((Map<?, ?>) out).remove("part_samples");
+            }
+        }
+        ObjectNode key = JSON.createObjectNode();
+        key.put("format", Version.DATASET_FORMAT);
+        key.put("samples", samples);
+        key.put("part_samples", partSamples);
+        key.set("spec", JSON.valueToTree(tree));
+        java.security.MessageDigest d = HashingOutputFile.sha256Digest();
+        return java.util.HexFormat.of().formatHex(d.digest(json(key).getBytes(java.nio.charset.StandardCharsets.UTF_8)));
+    }
+
+    /** A copy of a YAML tree with every mapping's keys sorted, so that key order does not matter. */
+    private static Object sorted(Object node) {
+        if (node instanceof Map) {
+            Map<String, Object> m = new java.util.TreeMap<>();
+            for (Map.Entry<?, ?> e : ((Map<?, ?>) node).entrySet()) {
+                m.put(String.valueOf(e.getKey()), sorted(e.getValue()));
+            }
+            return m;
+        }
+        if (node instanceof List) {
+            List<Object> l = new ArrayList<>();
+            for (Object o : (List<?>) node) {
+                l.add(sorted(o));
+            }
+            return l;
+        }
+        return node;
+    }
 
     static final String KEY_SPEC = "stillfield.spec";
     static final String KEY_VERSION = "stillfield.version";
@@ -46,6 +163,12 @@ final class Layout {
     static final String KEY_SAMPLES = "stillfield.samples";
     static final String KEY_TABLE = "stillfield.table";
     static final String KEY_UNITS = "stillfield.units";
+    static final String KEY_RUN_KEY = "stillfield.run_key";
+    static final String KEY_PART_SAMPLES = "stillfield.part_samples";
+    static final String KEY_PART_COUNT = "stillfield.part_count";
+    static final String KEY_PART = "stillfield.part";
+    static final String KEY_FIRST_SAMPLE = "stillfield.first_sample";
+    static final String KEY_SAMPLES_IN_PART = "stillfield.samples_in_part";
 
     /** Unit of dimensionless numbers (counts, indices, weights). */
     static final String ONE = "1";

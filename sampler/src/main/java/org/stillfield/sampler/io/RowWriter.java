@@ -158,7 +158,9 @@ final class RowWriter implements Closeable {
 
         Support(RowWriter owner, Map<String, String> metadata) {
             this.owner = owner;
-            this.metadata = Map.copyOf(metadata);
+            // Insertion order, not Map.copyOf: its iteration order changes from one JVM to the next,
+            // and the footer bytes with it.
+            this.metadata = java.util.Collections.unmodifiableMap(new java.util.LinkedHashMap<>(metadata));
         }
 
         // Abstract in WriteSupport, so it must exist; never called with a ParquetConfiguration set.

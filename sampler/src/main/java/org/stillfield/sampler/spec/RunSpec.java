@@ -29,10 +29,12 @@ import org.stillfield.sampler.api.Window;
  * @param maxModes largest mode count allowed
  * @param threads worker threads (≥ 1)
  * @param sourceText the spec file as written
+ * @param storage how the dataset is split and guarded (parts, shard, resource limits)
  */
 public record RunSpec(String name, Cavity cavity, ThermalState state, Set<Field> fields, Window window,
                       long samples, long seed, List<PointSet> pointSets, Path outputFolder, Precision precision,
-                      List<PointPair> pairs, double falseAlarm, long maxModes, int threads, String sourceText) {
+                      List<PointPair> pairs, double falseAlarm, long maxModes, int threads, String sourceText,
+                      Storage storage) {
     /** Storage precision of field values. */
     public enum Precision {
         /** IEEE double. */
@@ -50,11 +52,73 @@ public record RunSpec(String name, Cavity cavity, ThermalState state, Set<Field>
     public record PointPair(int first, int second) {
     }
 
+    /**
+     * How a run's dataset is split into parts and shards, and the resource limits checked before
+     * it starts.
+     *
+     * @param partSamples samples per part file, ≥ 1, or 0 for the default (parts of about
+     *     {@code DatasetWriter.TARGET_PART_BYTES})
+     * @param shard the part of the run this process writes
+     * @param maxOutputGB refuse a run whose files could exceed this many GB (10⁹ bytes); +∞ = no limit
+     * @param maxMemoryGB refuse a run whose estimated heap need exceeds this many GB; +∞ = no limit
+     */
+    public record Storage(long partSamples, Shard shard, double maxOutputGB, double maxMemoryGB) {
+        /** Defaults: automatic part size, the whole run, no limits beyond the machine's. */
+        public static final Storage DEFAULTS = new Storage(0, Shard.ALL, Double.POSITIVE_INFINITY,
+            Double.POSITIVE_INFINITY);
+
+        /** Validates. */
+        public Storage {
+            java.util.Objects.requireNonNull(shard, "shard");
+            if (partSamples < 0) {
+                throw new IllegalArgumentException("output.part_samples must be >= 1 (or 0 = default), got " + partSamples);
+            }
+            if (!(maxOutputGB > 0)) {
+                throw new IllegalArgumentException("limits.max_output_GB must be > 0, got " + maxOutputGB);
+            }
+            if (!(maxMemoryGB > 0)) {
+                throw new IllegalArgumentException("limits.max_memory_GB must be > 0, got " + maxMemoryGB);
+            }
+        }
+
+        /** @return the same settings for another shard */
+        public Storage withShard(Shard s) {
+            return new Storage(partSamples, s, maxOutputGB, maxMemoryGB);
+        }
+    }
+
     /** Copies collections. */
     public RunSpec {
         fields = EnumSet.copyOf(fields);
         pointSets = List.copyOf(pointSets);
         pairs = List.copyOf(pairs);
+        java.util.Objects.requireNonNull(storage, "storage");
+    }
+
+    /**
+     * A spec with the default {@link Storage}.
+     *
+     * @param name run name
+     * @param cavity the cavity
+     * @param state vacuum or thermal state
+     * @param fields fields to synthesise
+     * @param window spectral window
+     * @param samples number of samples
+     * @param seed master seed
+     * @param pointSets evaluation points
+     * @param outputFolder where the dataset goes
+     * @param precision float64 or float32
+     * @param pairs analysed point pairs
+     * @param falseAlarm verdict false-alarm rate
+     * @param maxModes largest mode count
+     * @param threads worker threads
+     * @param sourceText the spec as written
+     */
+    public RunSpec(String name, Cavity cavity, ThermalState state, Set<Field> fields, Window window,
+                   long samples, long seed, List<PointSet> pointSets, Path outputFolder, Precision precision,
+                   List<PointPair> pairs, double falseAlarm, long maxModes, int threads, String sourceText) {
+        this(name, cavity, state, fields, window, samples, seed, pointSets, outputFolder, precision, pairs, falseAlarm,
+            maxModes, threads, sourceText, Storage.DEFAULTS);
     }
 
     @Override
@@ -74,18 +138,24 @@ public record RunSpec(String name, Cavity cavity, ThermalState state, Set<Field>
     /** @return the same spec with another sample count */
     public RunSpec withSamples(long n) {
         return new RunSpec(name, cavity, state, fields, window, n, seed, pointSets, outputFolder, precision, pairs,
-            falseAlarm, maxModes, threads, sourceText);
+            falseAlarm, maxModes, threads, sourceText, storage);
     }
 
     /** @return the same spec with another thread count */
     public RunSpec withThreads(int n) {
         return new RunSpec(name, cavity, state, fields, window, samples, seed, pointSets, outputFolder, precision, pairs,
-            falseAlarm, maxModes, n, sourceText);
+            falseAlarm, maxModes, n, sourceText, storage);
     }
 
     /** @return the same spec writing to another folder */
     public RunSpec withOutputFolder(Path folder) {
         return new RunSpec(name, cavity, state, fields, window, samples, seed, pointSets, folder, precision, pairs,
-            falseAlarm, maxModes, threads, sourceText);
+            falseAlarm, maxModes, threads, sourceText, storage);
+    }
+
+    /** @return the same spec writing only the given shard of its parts */
+    public RunSpec withShard(Shard s) {
+        return new RunSpec(name, cavity, state, fields, window, samples, seed, pointSets, outputFolder, precision, pairs,
+            falseAlarm, maxModes, threads, sourceText, storage.withShard(s));
     }
 }

@@ -98,11 +98,25 @@ public final class SpecReader {
         List<PointSet> sets = evaluate(root.child("evaluate"), cavity);
 
         SpecNode out = root.child("output");
-        out.rejectUnknown(List.of("folder", "precision"));
+        out.rejectUnknown(List.of("folder", "precision", "part_samples", "shard"));
         String folder = out.string("folder", "out/" + name);
         Path outputFolder = baseFolder.resolve(folder).normalize();
         RunSpec.Precision precision = RunSpec.Precision.valueOf(
             out.choice("precision", "float64", List.of("float64", "float32")).toUpperCase(Locale.ROOT));
+        long partSamples = out.integer("part_samples", 0, 1, 1_000_000_000L);
+        Shard shard = Shard.ALL;
+        if (out.has("shard")) {
+            Object raw = out.raw("shard");
+            if (!(raw instanceof String)) {
+                throw new SpecException(out.at("shard"), "must be \"i/N\" (shard i of N, 0 <= i < N), e.g. \"0/8\","
+                    + " got " + SpecNode.describe(raw));
+            }
+            try {
+                shard = Shard.parse((String) raw);
+            } catch (IllegalArgumentException ex) {
+                throw new SpecException(out.at("shard"), ex.getMessage());
+            }
+        }
 
         SpecNode analysis = root.child("analysis");
         analysis.rejectUnknown(List.of("pairs", "false_alarm"));
@@ -113,13 +127,27 @@ public final class SpecReader {
         List<RunSpec.PointPair> pairs = pairs(analysis, sets);
 
         SpecNode limits = root.child("limits");
-        limits.rejectUnknown(List.of("max_modes"));
+        limits.rejectUnknown(List.of("max_modes", "max_output_GB", "max_memory_GB"));
         long maxModes = limits.integer("max_modes", 200_000, 1, 50_000_000);
+        double maxOutputGB = limit(limits, "max_output_GB");
+        double maxMemoryGB = limit(limits, "max_memory_GB");
         long threads = root.integer("threads", 0, 0, 1024);
         int nThreads = threads == 0 ? Runtime.getRuntime().availableProcessors() : (int) threads;
 
         return new RunSpec(name, cavity, state, fields, window, samples, seed, sets, outputFolder, precision, pairs,
-            falseAlarm, maxModes, nThreads, text);
+            falseAlarm, maxModes, nThreads, text, new RunSpec.Storage(partSamples, shard, maxOutputGB, maxMemoryGB));
+    }
+
+    /** A size limit in GB (10⁹ bytes): positive and finite when given; +∞ when absent. */
+    private static double limit(SpecNode limits, String key) throws SpecException {
+        if (!limits.has(key)) {
+            return Double.POSITIVE_INFINITY;
+        }
+        double v = limits.number(key);
+        if (!(v > 0) || !Double.isFinite(v)) {
+            throw new SpecException(limits.at(key), "must be a positive, finite number of GB (1 GB = 1e9 bytes), got " + v);
+        }
+        return v;
     }
 
     private static Cavity cavity(SpecNode node) throws SpecException {

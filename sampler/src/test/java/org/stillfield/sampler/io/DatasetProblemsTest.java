@@ -1,6 +1,7 @@
 package org.stillfield.sampler.io;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -46,23 +47,23 @@ class DatasetProblemsTest {
     @Test
     void findsATruncatedFile() throws Exception {
         Path folder = written("a");
-        Path f = folder.resolve(Layout.FIELDS);
+        Path f = folder.resolve(TestRuns.FIELDS0);
         long size = Files.size(f);
         try (RandomAccessFile raf = new RandomAccessFile(f.toFile(), "rw")) {
             raf.setLength(size - 10);
         }
         List<String> problems = Dataset.problems(folder);
-        assertTrue(mentions(problems, "fields.parquet", "bytes"), problems.toString());
-        assertTrue(mentions(problems, "fields.parquet", "SHA-256"), problems.toString());
-        assertTrue(mentions(problems, "fields.parquet", "Parquet"), problems.toString());
+        assertTrue(mentions(problems, "fields/part-00000.parquet", "bytes"), problems.toString());
+        assertTrue(mentions(problems, "fields/part-00000.parquet", "SHA-256"), problems.toString());
+        assertTrue(mentions(problems, "fields/part-00000.parquet", "Parquet"), problems.toString());
         IOException ex = assertThrows(IOException.class, () -> Dataset.open(folder));
-        assertTrue(ex.getMessage().contains("fields.parquet"), ex.getMessage());
+        assertTrue(ex.getMessage().contains("fields/part-00000.parquet"), ex.getMessage());
     }
 
     @Test
     void findsAChangedByteOfTheSameSize() throws Exception {
         Path folder = written("b");
-        Path f = folder.resolve(Layout.AMPLITUDES);
+        Path f = folder.resolve(TestRuns.AMPLITUDES0);
         try (RandomAccessFile raf = new RandomAccessFile(f.toFile(), "rw")) {
             raf.seek(Files.size(f) / 3);
             int b = raf.read();
@@ -71,7 +72,7 @@ class DatasetProblemsTest {
         }
         List<String> problems = Dataset.problems(folder);
         assertEquals(1, problems.size(), problems.toString());
-        assertTrue(mentions(problems, "amplitudes.parquet", "SHA-256"), problems.toString());
+        assertTrue(mentions(problems, "amplitudes/part-00000.parquet", "SHA-256"), problems.toString());
     }
 
     @Test
@@ -82,8 +83,8 @@ class DatasetProblemsTest {
         ((ObjectNode) m.get("files").get(2)).put("rows", 7);
         JSON.writeValue(folder.resolve(Layout.MANIFEST).toFile(), m);
         List<String> problems = Dataset.problems(folder);
-        assertTrue(mentions(problems, "points.parquet is missing"), problems.toString());
-        assertTrue(mentions(problems, "amplitudes.parquet", "rows", "says 7"), problems.toString());
+        assertTrue(mentions(problems, "points.parquet: missing"), problems.toString());
+        assertTrue(mentions(problems, "amplitudes/part-00000.parquet", "rows", "says 7"), problems.toString());
         assertThrows(IOException.class, () -> Dataset.open(folder));
 
         Files.delete(folder.resolve(Layout.MANIFEST));
@@ -94,8 +95,10 @@ class DatasetProblemsTest {
     @Test
     void findsFootersThatDisagreeAboutTheSpec() throws Exception {
         Path a = written("d");
-        // Same run, one comment added to the spec text: every table is the same except the footer.
-        RunSpec other = TestRuns.spec(dir, TestRuns.yaml("float64", 4, 10) + "# edited\n").withOutputFolder(dir.resolve("e"));
+        // Same modes and samples, another analysis setting: the mode table's data are the same, its
+        // footer holds a spec of another run key.
+        RunSpec other = TestRuns.spec(dir, TestRuns.yaml("float64", 4, 10) + "analysis: {false_alarm: 0.02}\n")
+            .withOutputFolder(dir.resolve("e"));
         TestRuns.write(other);
         Path modes = a.resolve(Layout.MODES);
         Files.copy(other.outputFolder().resolve(Layout.MODES), modes, StandardCopyOption.REPLACE_EXISTING);
@@ -106,8 +109,22 @@ class DatasetProblemsTest {
         entry.put("sha256", HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(modes))));
         JSON.writeValue(a.resolve(Layout.MANIFEST).toFile(), m);
         List<String> problems = Dataset.problems(a);
-        assertEquals(3, problems.size(), problems.toString());
-        assertTrue(problems.stream().allMatch(p -> p.contains("another spec")), problems.toString());
+        assertEquals(2, problems.size(), problems.toString());
+        assertTrue(problems.stream().allMatch(p -> p.startsWith("modes.parquet: footer")), problems.toString());
+        assertTrue(mentions(problems, "another spec"), problems.toString());
+        assertTrue(mentions(problems, "stillfield.run_key"), problems.toString());
+    }
+
+    @Test
+    void aCommentInTheSpecIsNoOtherRun() throws Exception {
+        // The run key covers the spec's settings, not its comments or layout (Layout.runKey).
+        String yaml = TestRuns.yaml("float64", 4, 10);
+        assertEquals(Layout.runKey(yaml, 10, 10), Layout.runKey("# edited\n" + yaml.replace("threads: 1", "threads: 2"), 10, 10));
+        assertNotEquals(Layout.runKey(yaml, 10, 10), Layout.runKey(yaml.replace("seed: 4", "seed: 5"), 10, 10));
+        assertNotEquals(Layout.runKey(yaml, 10, 10), Layout.runKey(yaml, 11, 10), "sample count overridden");
+        assertNotEquals(Layout.runKey(yaml, 10, 10), Layout.runKey(yaml, 10, 5), "part size");
+        assertEquals(Layout.runKey(yaml, 10, 10), Layout.runKey(yaml.replace("folder: out/t", "folder: elsewhere, shard: '1/4'"),
+            10, 10), "folder and shard say where, not what");
     }
 
     @Test

@@ -70,7 +70,7 @@ class DatasetRoundTripTest {
         // so sample 1111 (rows 19998..20015) straddles a page boundary.
         RunSpec spec = TestRuns.spec(dir, TestRuns.yaml("float64", 77, 1300).replace("fields: [A, E, B]", "fields: [B]"));
         TestRuns.Recorder written = TestRuns.write(spec);
-        Path fields = spec.outputFolder().resolve(Layout.FIELDS);
+        Path fields = spec.outputFolder().resolve(TestRuns.FIELDS0);
         try (org.apache.parquet.hadoop.ParquetFileReader r = org.apache.parquet.hadoop.ParquetFileReader.open(
             new org.apache.parquet.io.LocalInputFile(fields), org.apache.parquet.ParquetReadOptions.builder(
                 new org.apache.parquet.conf.PlainParquetConfiguration()).withCodecFactory(new PureJavaCodecs()).build())) {
@@ -102,7 +102,7 @@ class DatasetRoundTripTest {
                 }
             }
         }
-        Group row = TestRuns.groups(spec.outputFolder().resolve(Layout.FIELDS)).get(0);
+        Group row = TestRuns.groups(spec.outputFolder().resolve(TestRuns.FIELDS0)).get(0);
         assertEquals("FLOAT", row.getType().getType("E_x").asPrimitiveType().getPrimitiveTypeName().name());
     }
 
@@ -194,7 +194,7 @@ class DatasetRoundTripTest {
             boolean inside = grid.points().get(p).x() < 0.5;
             assertEquals(inside, points.get(p).getBoolean("inside", 0), "inside flag of point " + p);
         }
-        List<Group> rows = TestRuns.groups(folder.resolve(Layout.FIELDS));
+        List<Group> rows = TestRuns.groups(folder.resolve(TestRuns.FIELDS0));
         assertEquals(6 * 16, rows.size());
         for (Group row : rows) {
             int p = row.getInteger("point", 0);

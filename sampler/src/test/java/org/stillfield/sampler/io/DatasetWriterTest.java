@@ -42,8 +42,7 @@ class DatasetWriterTest {
         Files.writeString(spec.outputFolder().resolve("notes.txt"), "keep me");
         IllegalArgumentException ex = assertThrows(IllegalArgumentException.class,
             () -> DatasetWriter.create(spec, TestRuns.table(spec), false));
-        assertEquals("output.folder already exists: " + spec.outputFolder()
-            + "; choose another folder or pass --overwrite", ex.getMessage());
+        assertTrue(ex.getMessage().startsWith("output.folder already exists and is not a dataset"), ex.getMessage());
         // Not a dataset, so not replaced even with overwrite.
         IllegalArgumentException notDataset = assertThrows(IllegalArgumentException.class,
             () -> DatasetWriter.create(spec, TestRuns.table(spec), true));
@@ -61,39 +60,52 @@ class DatasetWriterTest {
     }
 
     @Test
-    void overwriteReplacesADatasetOnlyOnceTheNewOneIsComplete() throws Exception {
+    void anotherSpecIsRefusedAndOverwriteReplacesTheDataset() throws Exception {
         RunSpec first = TestRuns.spec(dir, TestRuns.yaml("float64", 1, 4));
-        RunSpec second = TestRuns.spec(dir, TestRuns.yaml("float64", 2, 4));
-        TestRuns.Recorder old = TestRuns.write(first);
+        RunSpec second = TestRuns.spec(dir, TestRuns.yaml("float64", 2, 4, 2));
+        TestRuns.write(first);
         ModeTable table = TestRuns.table(second);
-        assertThrows(IllegalArgumentException.class, () -> DatasetWriter.create(second, table, false));
+        IllegalArgumentException other = assertThrows(IllegalArgumentException.class,
+            () -> DatasetWriter.create(second, table, false));
+        assertTrue(other.getMessage().startsWith("output.folder") && other.getMessage().contains("another spec")
+            && other.getMessage().contains("--overwrite"), other.getMessage());
 
-        // A failed overwrite leaves the old dataset untouched.
+        // A failed overwrite has removed the old manifest first: the folder is no dataset, never half of one.
         try (DatasetWriter w = DatasetWriter.create(second, table, true)) {
             assertThrows(IllegalStateException.class,
-                () -> EnsembleRunner.run(TestRuns.plan(second, table), new FailAfterFirstBatch(w), null));
+                () -> EnsembleRunner.run(TestRuns.plan(second, table), new FailAfterFirstBatch(w, 3), null));
         }
-        TestRuns.Recorder kept = TestRuns.replay(Dataset.open(first.outputFolder()), 10);
-        assertEquals(old.q.get(0)[0], kept.q.get(0)[0], 0.0, "old dataset still in place after a failed overwrite");
+        assertThrows(IOException.class, () -> Dataset.open(first.outputFolder()));
+        assertEquals(List.of("part-00000.parquet"), names(second.outputFolder().resolve(Layout.AMPLITUDES)),
+            "part 0 finished, part 1 (sample 2 written) removed");
 
-        TestRuns.Recorder fresh = TestRuns.write(second, table, true);
+        // The same spec again, without overwrite, continues where the failed run stopped.
+        TestRuns.Recorder fresh = TestRuns.write(second, table, false);
         Dataset d = Dataset.open(second.outputFolder());
         assertEquals("2", d.footer(Layout.MODES).get(Layout.KEY_SEED));
-        assertEquals(fresh.q.get(0)[0], TestRuns.replay(d, 10).q.get(0)[0], 0.0);
-        assertEquals(List.of("t"), names(dir.resolve("out")), "no staging or old folder left behind");
+        assertEquals(2, fresh.first, "only the missing part was drawn");
+        assertEquals(fresh.q.get(0)[0], TestRuns.replay(d, 10).q.get(2)[0], 0.0);
+        assertEquals(List.of("t"), names(dir.resolve("out")), "nothing left beside the dataset");
+        assertEquals(List.of(), Dataset.problems(d.folder()));
     }
 
-    /** Forwards the first batch, then fails as a run would on e.g. a full disk. */
+    /** Forwards the first samples of the first batch, then fails as a run would on e.g. a full disk. */
     private static final class FailAfterFirstBatch implements EnsembleSink {
         private final EnsembleSink inner;
+        private final int samples;
 
         FailAfterFirstBatch(EnsembleSink inner) {
+            this(inner, Integer.MAX_VALUE);
+        }
+
+        FailAfterFirstBatch(EnsembleSink inner, int samples) {
             this.inner = inner;
+            this.samples = samples;
         }
 
         @Override
         public void accept(SampleBatch batch) throws IOException {
-            inner.accept(batch);
+            inner.accept(TestRuns.head(batch, Math.min(samples, batch.size())));
             throw new IllegalStateException("simulated failure after sample " + batch.firstSample());
         }
 
@@ -103,37 +115,48 @@ class DatasetWriterTest {
         }
     }
 
-    @Test
-    void aFailedRunLeavesNeitherTargetNorStagingFolder() throws Exception {
-        RunSpec spec = TestRuns.spec(dir);
-        ModeTable table = TestRuns.table(spec);
-        try (DatasetWriter w = DatasetWriter.create(spec, table, false)) {
-            assertThrows(IllegalStateException.class,
-                () -> EnsembleRunner.run(TestRuns.plan(spec, table), new FailAfterFirstBatch(w), null));
+    /** @return every file under a folder whose name marks it temporary or complete, relative */
+    private static List<String> files(Path folder) throws IOException {
+        try (Stream<Path> s = Files.walk(folder)) {
+            return s.filter(Files::isRegularFile).map(p -> folder.relativize(p).toString()).sorted()
+                .collect(Collectors.toList());
         }
-        assertFalse(Files.exists(spec.outputFolder()));
-        assertEquals(List.of(), names(dir.resolve("out")), "staging folder removed");
     }
 
     @Test
-    void closingWithoutFinishOrWithTooFewSamplesLeavesNothing() throws Exception {
+    void aFailedRunLeavesNoManifestAndNoTemporaryFile() throws Exception {
+        RunSpec spec = TestRuns.spec(dir, TestRuns.yaml("float64", 12345, 50, 10));
+        ModeTable table = TestRuns.table(spec);
+        try (DatasetWriter w = DatasetWriter.create(spec, table, false)) {
+            assertThrows(IllegalStateException.class,
+                () -> EnsembleRunner.run(TestRuns.plan(spec, table), new FailAfterFirstBatch(w, 15), null));
+        }
+        assertEquals(List.of(".stillfield/parts/part-00000.json", ".stillfield/run.json", "amplitudes/part-00000.parquet",
+            "fields/part-00000.parquet", "modes.parquet", "points.parquet"), files(spec.outputFolder()));
+        IOException ex = assertThrows(IOException.class, () -> Dataset.open(spec.outputFolder()));
+        assertTrue(ex.getMessage().contains("not a dataset"), ex.getMessage());
+        List<String> problems = Dataset.problems(spec.outputFolder());
+        assertTrue(problems.size() == 1 && problems.get(0).contains("1 of 5 parts present, missing part 1-4"),
+            problems.toString());
+    }
+
+    @Test
+    void closingWithoutFinishOrWithTooFewSamplesLeavesNoManifest() throws Exception {
         RunSpec spec = TestRuns.spec(dir);
         ModeTable table = TestRuns.table(spec);
         try (DatasetWriter w = DatasetWriter.create(spec, table, false)) {
-            // Staging exists while writing, hidden from the target's name.
-            assertEquals(1, names(dir.resolve("out")).size());
-            assertTrue(names(dir.resolve("out")).get(0).startsWith(".t.partial-"), names(dir.resolve("out")).toString());
+            assertEquals(List.of(0), w.plan().pendingParts());
         }
-        assertEquals(List.of(), names(dir.resolve("out")));
+        assertFalse(Files.exists(spec.outputFolder().resolve(Layout.MANIFEST)));
 
         RunSpec fewer = spec.withSamples(10);
         try (DatasetWriter w = DatasetWriter.create(spec, table, false)) {
-            // The engine delivers 10 samples, the writer's spec asks for 50.
+            // The engine delivers 10 samples, the writer's part 0 holds 50.
             IllegalStateException ex = assertThrows(IllegalStateException.class,
                 () -> EnsembleRunner.run(TestRuns.plan(fewer, table), w, null));
-            assertTrue(ex.getMessage().contains("samples = 50"), ex.getMessage());
+            assertTrue(ex.getMessage().contains("part 0"), ex.getMessage());
         }
-        assertEquals(List.of(), names(dir.resolve("out")));
+        assertEquals(List.of(".stillfield/run.json", "modes.parquet", "points.parquet"), files(spec.outputFolder()));
     }
 
     @Test
@@ -148,7 +171,7 @@ class DatasetWriterTest {
             assertTrue(ex.getMessage().contains("expected 0"), ex.getMessage());
             assertThrows(IllegalStateException.class, w::finish, "a failed writer cannot be finished");
         }
-        assertEquals(List.of(), names(dir.resolve("out")));
+        assertFalse(Files.exists(spec.outputFolder().resolve(Layout.MANIFEST)));
     }
 
     @Test
@@ -174,7 +197,7 @@ class DatasetWriterTest {
             Dataset d = Dataset.open(spec.outputFolder());
             TestRuns.replay(d, 2);
             d.sample(4, Field.B);
-            d.footer(Layout.FIELDS);
+            d.footer(TestRuns.FIELDS0);
             Dataset.problems(spec.outputFolder());
         } finally {
             System.setOut(out);

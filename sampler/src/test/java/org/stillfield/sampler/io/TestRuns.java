@@ -30,6 +30,10 @@ import org.stillfield.sampler.spec.SpecReader;
 
 /** Small runs for the dataset tests: a 1 × 1.3 × 1.7 m box, a few dozen modes, 18 points. */
 final class TestRuns {
+    /** The part files of a run small enough for one part. */
+    static final String AMPLITUDES0 = Layout.part(Layout.AMPLITUDES, 0);
+    static final String FIELDS0 = Layout.part(Layout.FIELDS, 0);
+
     private TestRuns() {
     }
 
@@ -50,6 +54,31 @@ final class TestRuns {
             + "    - {name: g, n: [3, 2, 2]}\n"
             + "output: {folder: out/t, precision: " + precision + "}\n"
             + "threads: 1\n";
+    }
+
+    /** Like {@link #yaml(String, long, int)}, split into parts of {@code partSamples} samples. */
+    static String yaml(String precision, long seed, int samples, int partSamples) {
+        return yaml(precision, seed, samples).replace("output: {folder: out/t, precision: " + precision + "}",
+            "output: {folder: out/t, precision: " + precision + ", part_samples: " + partSamples + "}");
+    }
+
+    /** @return the first n samples of a batch, as the engine would have delivered them */
+    static SampleBatch head(SampleBatch b, int n) {
+        double[][] q = new double[n][];
+        double[][] e = new double[n][];
+        Map<Field, double[][]> v = new EnumMap<>(Field.class);
+        for (int s = 0; s < n; s++) {
+            q[s] = b.q(s);
+            e[s] = b.e(s);
+        }
+        for (Field f : b.fields()) {
+            double[][] x = new double[n][];
+            for (int s = 0; s < n; s++) {
+                x[s] = b.values(f, s);
+            }
+            v.put(f, x);
+        }
+        return new SampleBatch(b.firstSample(), q, e, v);
     }
 
     static RunSpec spec(Path dir, String yaml) throws SpecException {
@@ -73,7 +102,13 @@ final class TestRuns {
     static Recorder write(RunSpec spec, ModeTable table, boolean overwrite) throws IOException {
         Recorder rec = new Recorder();
         try (DatasetWriter w = DatasetWriter.create(spec, table, overwrite)) {
-            EnsembleRunner.run(plan(spec, table), new Tee(rec, w), null);
+            // The ranges still missing, as the command line runs them (all of them in a new folder).
+            for (DatasetWriter.Range r : w.plan().pending()) {
+                EnsembleRunner.Plan p = new EnsembleRunner.Plan(table, spec.allPoints(), spec.fields(), spec.seed(),
+                    r.firstSample(), r.sampleCount(), spec.threads());
+                EnsembleRunner.run(p, new Tee(rec, w.batches()), null);
+            }
+            w.finish();
         }
         return rec;
     }
@@ -95,10 +130,15 @@ final class TestRuns {
         final List<double[]> e = new ArrayList<>();
         final Map<Field, List<double[]>> values = new EnumMap<>(Field.class);
         long next;
+        long first = -1;
         int finishes;
 
         @Override
         public void accept(SampleBatch batch) {
+            if (first < 0) {
+                first = batch.firstSample();
+                next = first;
+            }
             assertEquals(next, batch.firstSample(), "batches arrive in sample order");
             for (int s = 0; s < batch.size(); s++) {
                 q.add(batch.q(s).clone());
