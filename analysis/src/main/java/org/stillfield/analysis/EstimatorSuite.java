@@ -58,6 +58,7 @@ public final class EstimatorSuite {
     private final GaussianityCheck gaussianity;
     private final ConvergenceTracker convergence;
     private final List<String> notes = new ArrayList<>();
+    private final java.util.Map<String, Integer> lineStart = new java.util.HashMap<>();
 
     private record Named<T>(String set, T estimator) {
     }
@@ -123,6 +124,7 @@ public final class EstimatorSuite {
                 }
             }
             if (s.kind() == PointSet.Kind.LINE && inside.size() >= 2) {
+                lineStart.put(s.name(), inside.get(0));
                 if (firstLine == null) {
                     firstLine = s.name();
                     firstLinePoints = List.copyOf(inside);
@@ -154,9 +156,9 @@ public final class EstimatorSuite {
         }
         kernelLine = firstLine;
         kernelPoints = firstLinePoints;
-        variances = firstLine != null && kernelPoints.size() >= 5 ? ModeVariances.of(table, KERNEL_GROUPS) : null;
+        variances = firstLine != null && kernelPoints.size() >= 7 ? ModeVariances.of(table, KERNEL_GROUPS) : null;
         if (variances == null) {
-            notes.add("kernel fall-off needs a line of at least 5 interior points: none");
+            notes.add("kernel fall-off needs a line of at least 7 interior points: none");
         }
         Field pf = fields.contains(Field.E) ? Field.E : fields.iterator().next();
         gaussianity = GaussianityCheck.of(table, pf, mardiaPoints(pf), points, 16, 20_000);
@@ -287,7 +289,10 @@ public final class EstimatorSuite {
         }
         List<Profile> prof = new ArrayList<>();
         for (Named<WallProfile> n : profiles) {
-            prof.add(new Profile(n.set(), n.estimator().field(), n.estimator().result(table, points)));
+            // Against the wall the line starts from: its image is the reference along the whole line.
+            Vec3 first = points.get(lineStart.get(n.set()));
+            BoxWalls.Wall wall = BoxWalls.of(table.cavity()).nearest(first);
+            prof.add(new Profile(n.set(), n.estimator().field(), n.estimator().result(table, points, wall)));
         }
         List<Kernel> kernels = new ArrayList<>();
         if (variances != null) {
@@ -322,8 +327,8 @@ public final class EstimatorSuite {
             double wk = w.weight(table.cavity().medium().waveSpeed() * k);
             return wk * wk;
         };
-        String text = w.kind() == Window.Kind.HARD ? "rho = 1 (hard window: the bare kernel of the enumerated modes)"
-            : "rho = W(omega)^2 (the run's window on the inverse variances)";
+        String text = w.kind() == Window.Kind.HARD ? "ρ = 1 (hard window: the bare kernel of the enumerated modes)"
+            : "ρ = W(ω)² (the run's window applied to the inverse variances)";
         ModeSpaceKernel k = ModeSpaceKernel.of(table, f, rho, text);
         int mid = kernelPoints.size() / 2;
         Vec3 origin = points.get(kernelPoints.get(mid));
@@ -331,7 +336,9 @@ public final class EstimatorSuite {
         Vec3 start = points.get(kernelPoints.get(0));
         Vec3 dir = end.minus(start);
         double step = points.get(kernelPoints.get(1)).minus(start).norm();
-        int half = Math.min(mid, kernelPoints.size() - 1 - mid);
+        // The line's last points are left out: a line running wall to wall ends on the walls, where
+        // the tangential mode functions vanish and the kernel's components with them.
+        int half = Math.min(mid, kernelPoints.size() - 1 - mid) - 1;
         double[] sep = new double[half];
         for (int s = 0; s < half; s++) {
             sep[s] = (s + 1) * step;

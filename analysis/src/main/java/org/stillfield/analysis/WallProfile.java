@@ -116,11 +116,27 @@ public final class WallProfile implements EnsembleSink {
     }
 
     /**
+     * Rows against the nearest wall of each point.
+     *
      * @param table the modes the ensemble was drawn with; the cavity must be a box
      * @param points all evaluation points, metres
      * @return four rows per point (x, y, z, sum), points in the order given
      */
     public List<WallProfileRow> result(ModeTable table, List<Vec3> points) {
+        return result(table, points, null);
+    }
+
+    /**
+     * Rows against one chosen wall (e.g. the wall a line starts from), whose image gives the
+     * plane-image reference for every point.
+     *
+     * @param table the modes the ensemble was drawn with; the cavity must be a box
+     * @param points all evaluation points, metres
+     * @param wall the wall (axis and position; its distance field is ignored), or null for each
+     *     point's nearest wall
+     * @return four rows per point (x, y, z, sum), points in the order given
+     */
+    public List<WallProfileRow> result(ModeTable table, List<Vec3> points, BoxWalls.Wall wall) {
         Objects.requireNonNull(table, "table");
         Objects.requireNonNull(points, "points");
         BoxWalls walls = BoxWalls.of(table.cavity());
@@ -151,7 +167,8 @@ public final class WallProfile implements EnsembleSink {
         List<WallProfileRow> out = new ArrayList<>();
         for (int k = 0; k < globalPoints.length; k++) {
             Vec3 r = own.get(k);
-            BoxWalls.Wall w = walls.nearest(r);
+            BoxWalls.Wall w = wall == null ? walls.nearest(r)
+                : new BoxWalls.Wall(wall.axis(), wall.position(), Math.abs(r.get(wall.axis()) - wall.position()));
             double[][] c = ms.get(k);
             double[][] img = free.nearPlane(field, w.axis(), w.position(), r, r);
             double sumC = 0;
