@@ -298,25 +298,31 @@ public final class ModeSpaceKernel {
             return out;
         }
 
-        /** @return standard errors {∥[k], ⊥[k]} of the sampled estimate from N samples (exact, see class notes) */
+        /**
+         * @return standard errors {∥[k], ⊥[k], (∥ − ⊥)[k]} of the sampled estimate from N samples
+         *     (exact for Gaussian amplitudes, see class notes)
+         */
         public double[][] standardErrors(long n) {
             if (n <= 4) {
                 throw new IllegalArgumentException("n must exceed 4: " + n);
             }
             int ns = separations.length;
-            double[][] out = new double[2][ns];
+            double[][] out = new double[3][ns];
             double f = 2.0 / (n - 4);
             for (int k = 0; k < ns; k++) {
                 double vp = 0;
                 double vq = 0;
+                double vd = 0;
                 for (int l = 0; l < exact.length; l++) {
                     double par = exact[l] * pPar[k][l];
                     double perp = 0.5 * exact[l] * (pTr[k][l] - pPar[k][l]);
                     vp += par * par;
                     vq += perp * perp;
+                    vd += (par - perp) * (par - perp);
                 }
                 out[0][k] = Math.sqrt(f * vp);
                 out[1][k] = Math.sqrt(f * vq);
+                out[2][k] = Math.sqrt(f * vd);
             }
             return out;
         }
@@ -337,7 +343,7 @@ public final class ModeSpaceKernel {
         public List<KernelPoint> points(ModeVariances variances) {
             double[][] ms = evaluate(exact);
             double[][] est = variances == null ? ms : evaluate(sampledWeights(variances, -1));
-            double[][] se = variances == null ? new double[2][separations.length] : standardErrors(variances.samples());
+            double[][] se = variances == null ? new double[3][separations.length] : standardErrors(variances.samples());
             FreeSpaceSpectrum fs = freeSpace();
             Medium medium = table.cavity().medium();
             List<KernelPoint> out = new ArrayList<>();
@@ -474,16 +480,9 @@ public final class ModeSpaceKernel {
             return out;
         }
 
-        /** Errors of the selected component; ∥ − ⊥ combines them in quadrature (an upper bound). */
+        /** Errors of the selected component. */
         private double[] selectSe(double[][] se, Component component, double[] y) {
-            if (component == Component.PARALLEL) {
-                return se[0];
-            }
-            double[] out = new double[se[0].length];
-            for (int k = 0; k < out.length; k++) {
-                out[k] = Math.hypot(se[0][k], se[1][k]);
-            }
-            return out;
+            return component == Component.PARALLEL ? se[0] : se[2];
         }
     }
 }

@@ -14,7 +14,8 @@ import org.stillfield.sampler.spec.RunSpec;
 
 /**
  * Mean-square profiles ⟨F_x²⟩, ⟨F_y²⟩, ⟨F_z²⟩ and ⟨F²⟩ at chosen points of a box (typically a line
- * running away from a wall), against the distance from the nearest wall.
+ * running away from a wall), against the distance from a chosen wall (e.g. the one the line starts
+ * from) or from each point's nearest wall.
  *
  * <p>Estimates: per point the squares F_c² and F² of every sample go into a
  * {@link MomentAccumulator}, so parts merge exactly. Standard errors are the Isserlis ones from the
@@ -23,7 +24,7 @@ import org.stillfield.sampler.spec.RunSpec;
  * ({@link FreeSpaceSpectrum#correlation}), and free space plus the image in the nearest wall
  * (PHYSICS.md §4; near one wall the excess of ⟨E²⟩ tends to 3ħc/(16π²ε0z⁴) for a → 0,
  * REFERENCE-VALUES.md §6). The image reference ignores the other five walls, so it agrees with the
- * mode sum only where the nearest wall dominates.
+ * mode sum only where that wall dominates.
  *
  * <p>A component whose mode-sum variance is below 1e-20 of the largest on the profile (tangential E
  * or normal B on a wall, where every mode function vanishes) is reported with standard error 0 and
