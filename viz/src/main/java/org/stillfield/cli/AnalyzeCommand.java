@@ -10,7 +10,9 @@ import picocli.CommandLine.Spec;
 /** Estimates the correlation table of a dataset and writes it with the verdict. */
 @Command(name = "analyze", mixinStandardHelpOptions = true,
     description = {"Estimate C_ij(r, r') of a dataset with standard errors, compare with the analytic mode sum,",
-        "and write analysis/correlations.csv, correlations.json and verdict.json. Exit 1 if the verdict fails."})
+        "and write analysis/correlations.csv, correlations.json and verdict.json. Exit 1 if the verdict fails.",
+        "Also writes the extended estimators (pair covariances of lines, separation bins, wall profiles, kernel",
+        "fall-off, Gaussianity checks, convergence) as CSV tables listed in analysis/estimators.json."})
 final class AnalyzeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "DATASET", description = "Dataset folder written by 'stillfield sample'.")
     Path dataset;

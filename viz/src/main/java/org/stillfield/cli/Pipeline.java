@@ -16,6 +16,8 @@ import me.tongfei.progressbar.ProgressBarStyle;
 import org.stillfield.analysis.AmplitudeCheck;
 import org.stillfield.analysis.CorrelationEstimator;
 import org.stillfield.analysis.CorrelationTables;
+import org.stillfield.analysis.EstimatorSuite;
+import org.stillfield.analysis.EstimatorTables;
 import org.stillfield.analysis.Verdicts;
 import org.stillfield.analysis.api.CorrelationResult;
 import org.stillfield.analysis.api.Verdict;
@@ -29,6 +31,7 @@ import org.stillfield.sampler.io.DatasetWriter;
 import org.stillfield.sampler.io.ResourceGuard;
 import org.stillfield.sampler.spec.RunSpec;
 import org.stillfield.sampler.spec.Shard;
+import org.stillfield.viz.EstimatorFigures;
 import org.stillfield.viz.Figure;
 import org.stillfield.viz.RunReport;
 
@@ -49,7 +52,7 @@ final class Pipeline {
 
     /** What an analysis step produced. */
     record Analysis(Path dataset, RunSpec spec, ModeTable table, CorrelationResult correlations, Verdict amplitudes,
-                    Verdict verdict) {
+                    Verdict verdict, EstimatorSuite.Result estimators) {
     }
 
     static ModeTable modes(RunSpec spec) {
@@ -149,11 +152,13 @@ final class Pipeline {
         double alpha = spec.falseAlarm();
         CorrelationEstimator estimator = new CorrelationEstimator(spec.pairs(), spec.fields(), spec.allPoints().size());
         AmplitudeCheck amplitudes = new AmplitudeCheck(table);
-        ds.replay(tee(estimator, amplitudes), 256);
+        EstimatorSuite suite = EstimatorSuite.forRun(spec, table);
+        ds.replay(tee(estimator, amplitudes, suite.sink()), 256);
         // Bonferroni split of the run's false-alarm rate between the two checks.
         CorrelationResult correlations = estimator.result(table, spec.allPoints(), alpha / 2);
         Verdict ks = amplitudes.verdict(alpha / 2);
         Verdict verdict = Verdicts.combine(alpha, correlations.verdict(), ks);
+        EstimatorSuite.Result estimators = suite.result(alpha);
         if (write) {
             Path dir = folder.resolve("analysis");
             Files.createDirectories(dir);
@@ -161,8 +166,9 @@ final class Pipeline {
             CorrelationTables.writeCsv(correlations, spec.allPoints(), names, dir.resolve("correlations.csv"));
             CorrelationTables.writeJson(correlations, spec.allPoints(), names, dir.resolve("correlations.json"));
             CorrelationTables.writeVerdict(verdict, List.of(correlations.verdict(), ks), dir.resolve("verdict.json"));
+            EstimatorTables.write(estimators, dir, spec.allPoints(), names);
         }
-        return new Analysis(folder, spec, table, correlations, ks, verdict);
+        return new Analysis(folder, spec, table, correlations, ks, verdict, estimators);
     }
 
     static List<String> pointNames(RunSpec spec) {
@@ -186,11 +192,14 @@ final class Pipeline {
                 throw new java.io.UncheckedIOException(ex);
             }
         });
+        figures = new ArrayList<>(figures);
+        figures.addAll(EstimatorFigures.figuresFor(dir, a.spec(), a.table(), a.estimators()));
         java.util.LinkedHashMap<String, String> all = new java.util.LinkedHashMap<>(facts);
         all.put("verdict", a.verdict().passed() ? "PASS" : "FAIL");
         all.put("verdict method", a.verdict().method());
         all.put("amplitude check", a.amplitudes().method() + (a.amplitudes().passed() ? " (pass)" : " (FAIL)"));
-        return RunReport.write(dir, a.spec(), a.table(), a.correlations(), all, figures);
+        return RunReport.write(dir, a.spec(), a.table(), a.correlations(), all, figures,
+            EstimatorFigures.sections(a.estimators()));
     }
 
     static void printVerdict(Analysis a, PrintWriter out) {

@@ -66,6 +66,27 @@ public final class RunReport {
      */
     public static Path write(Path reportFolder, RunSpec spec, ModeTable table, CorrelationResult result,
                              Map<String, String> facts, List<Figure> figures) throws IOException {
+        return write(reportFolder, spec, table, result, facts, figures, Map.of());
+    }
+
+    /**
+     * Like {@link #write(Path, RunSpec, ModeTable, CorrelationResult, Map, List)}, with further
+     * titled sections of key–value lines after the run's own (e.g. the extended estimators).
+     *
+     * @param reportFolder output folder
+     * @param spec the run's spec
+     * @param table the run's modes
+     * @param result correlation table and verdict
+     * @param facts further lines to list as given, in map order
+     * @param figures figures to show, in order
+     * @param extraSections title → lines, in map order
+     * @return path of {@code index.html}
+     * @throws IOException when a file cannot be written
+     */
+    public static Path write(Path reportFolder, RunSpec spec, ModeTable table, CorrelationResult result,
+                             Map<String, String> facts, List<Figure> figures,
+                             Map<String, Map<String, String>> extraSections) throws IOException {
+        Objects.requireNonNull(extraSections, "extraSections");
         Objects.requireNonNull(reportFolder, "reportFolder");
         Objects.requireNonNull(spec, "spec");
         Objects.requireNonNull(table, "table");
@@ -74,6 +95,10 @@ public final class RunReport {
         Objects.requireNonNull(figures, "figures");
         Files.createDirectories(reportFolder);
         Content c = Content.of(reportFolder, spec, table, result, facts, figures);
+        List<Section> more = new ArrayList<>(c.sections());
+        extraSections.forEach((title, lines) -> more.add(new Section(title, new LinkedHashMap<>(lines))));
+        c = new Content(c.name(), c.headline(), c.verdict(), c.samples(), c.tests(), List.copyOf(more), c.figures(),
+            c.figurePaths(), c.worstHeader(), c.worst(), c.footer());
         Path html = reportFolder.resolve(HTML);
         Files.writeString(html, ReportHtml.render(c), StandardCharsets.UTF_8);
         Files.writeString(reportFolder.resolve(MARKDOWN), ReportMarkdown.render(c), StandardCharsets.UTF_8);
