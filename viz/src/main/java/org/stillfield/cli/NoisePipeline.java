@@ -225,16 +225,16 @@ final class NoisePipeline {
         StringBuilder sb = new StringBuilder();
         int shown = Math.min(3, a.count());
         for (int i = 0; i < shown; i++) {
-            sb.append(i > 0 ? ", " : "").append(String.format(Locale.ROOT, "%s at %.6g GHz", a.labels().get(i),
-                a.frequenciesHz().get(i) / 1e9));
+            sb.append(i > 0 ? ", " : "").append(a.labels().get(i)).append(" at ").append(num(a.frequenciesHz().get(i) / 1e9))
+                .append(" GHz");
         }
         if (a.count() > shown) {
             sb.append(", ...");
         }
-        return String.format(Locale.ROOT, "dt = %.6g s puts the Nyquist frequency at %.6g GHz; %d of %d modes lie at or"
-                + " above it (%s) and appear at folded frequencies in the spectra; use dt < %.6g s (sample rate above"
-                + " %.6g GHz) or a lower window cutoff", a.dtSeconds(), a.nyquistHz() / 1e9, a.count(), a.modeCount(), sb,
-            a.largestCleanDt(), 2 * a.highestHz() / 1e9);
+        return String.format(Locale.ROOT, "dt = %s s puts the Nyquist frequency at %s GHz; %d of %d modes lie at or"
+                + " above it (%s) and appear at folded frequencies in the spectra; use dt < %s s (sample rate above"
+                + " %s GHz) or a lower window cutoff", num(a.dtSeconds()), num(a.nyquistHz() / 1e9), a.count(),
+            a.modeCount(), sb, num(a.largestCleanDt()), num(2 * a.highestHz() / 1e9));
     }
 
     /** Power a probe draws from each mode: σ_l²(a_l² + b_l²/ω_l²), window and thermal factor included. */
@@ -568,7 +568,7 @@ final class NoisePipeline {
         Map<String, String> outs = new LinkedHashMap<>();
         outs.put("time series", seriesFolder.toString());
         outs.put("tables", analysisFolder.toString());
-        outs.put("time", String.format(Locale.ROOT, "%.2f s to draw, write and analyse", seconds));
+        outs.put("time", String.format(Locale.ROOT, "%.2f s to draw and write the series and accumulate the spectra", seconds));
         sections.put("Outputs", outs);
 
         List<NoiseReport.Channel> channels = new ArrayList<>();
