@@ -1,7 +1,8 @@
 #!/usr/bin/env python3
 """Writes the malformed-spec corpus: each file is the demo spec with one thing broken and a first
 line '# expect: SETTING' naming the setting the error message must name. Re-run after changing the
-demo spec: python3 make_corpus.py ../../../../../runs/demo.yaml"""
+demo spec: python3 make_corpus.py ../../../../../runs/demo.yaml [../../../../../runs/noise-demo.yaml]
+The ts-*.yaml cases break the timeseries and probes sections of the noise demo spec."""
 import re, sys, os, glob
 
 base = open(sys.argv[1] if len(sys.argv) > 1 else "../../../../../runs/demo.yaml").read()
@@ -166,3 +167,58 @@ for i, (name, expect, fn) in enumerate(cases):
     with open(f"{i:03d}-{name}.yaml", "w") as out:
         out.write(f"# expect: {expect}\n" + text)
 print(len(cases), "cases")
+
+# Noise time-series sections, from the noise demo spec.
+noise = open(sys.argv[2] if len(sys.argv) > 2 else "../../../../../runs/noise-demo.yaml").read()
+ts = []
+def tcase(name, expect, fn):
+    ts.append((name, expect, fn))
+
+tcase("probes-without-timeseries", "probes", sub(r"^timeseries:\n(  .*\n|\n)+?(?=probes:)", ""))
+tcase("timeseries-not-mapping", "timeseries", sub(r"^timeseries:\n(  .*\n|\n)+?(?=probes:)", "timeseries: 40\n"))
+tcase("no-time-step", "timeseries.dt_s", drop(r"^  sample_rate_GHz:"))
+tcase("two-time-steps", "timeseries.dt_s", sub(r"^  sample_rate_GHz: 40", "  sample_rate_GHz: 40\n  dt_s: 2.5e-11"))
+tcase("rate-negative", "timeseries.sample_rate_GHz", sub(r"^  sample_rate_GHz: 40", "  sample_rate_GHz: -40"))
+tcase("dt-text", "timeseries.dt_s", sub(r"^  sample_rate_GHz: 40", "  dt_s: fast"))
+tcase("steps-missing", "timeseries.steps", drop(r"^  steps:"))
+tcase("steps-zero", "timeseries.steps", sub(r"^  steps: \d+", "  steps: 0"))
+tcase("steps-fraction", "timeseries.steps", sub(r"^  steps: \d+", "  steps: 1000.5"))
+tcase("samples-one", "timeseries.samples", sub(r"^  samples: 16", "  samples: 1"))
+tcase("unknown-key", "timeseries.step", sub(r"^  steps:", "  step:"))
+tcase("loss-typo", "timeseries.loss.Q", sub(r"^    q: 2000", "    Q: 2000"))
+tcase("loss-sigma-negative", "timeseries.loss.wall_sigma_S_per_m", sub(r"^    wall_sigma_S_per_m: .*", "    wall_sigma_S_per_m: -5.8e7"))
+tcase("loss-q-zero", "timeseries.loss.q", sub(r"^    q: 2000", "    q: 0"))
+tcase("loss-tan-delta-text", "timeseries.loss.tan_delta", sub(r"^    q: 2000", "    q: 2000\n    tan_delta: small"))
+tcase("wall-loss-cylinder", "timeseries.loss.wall_sigma_S_per_m", sub(r"^  shape: box\n  a_m: .*\n  b_m: .*\n  d_m: .*\n",
+      "  shape: cylinder\n  radius_m: 0.015\n  length_m: 0.040\n"))
+tcase("record-unknown", "timeseries.record", sub(r"^  record: \[probes\]", "  record: [probes, fields]"))
+tcase("aliasing-unknown", "timeseries.aliasing", sub(r"^  aliasing: fail", "  aliasing: ignore"))
+tcase("segment-not-power-of-two", "timeseries.spectra.segment", sub(r"^    segment: \d+", "    segment: 30000"))
+tcase("segment-above-steps", "timeseries.spectra.segment", sub(r"^    segment: \d+", "    segment: 262144"))
+tcase("detrend-unknown", "timeseries.spectra.detrend", sub(r"^    detrend: none", "    detrend: linear"))
+tcase("confidence-one", "timeseries.spectra.confidence", sub(r"^    confidence: .*", "    confidence: 1.0"))
+tcase("lags-too-many", "timeseries.spectra.correlation_lags", sub(r"^    correlation_lags: \d+", "    correlation_lags: 131072"))
+tcase("origins-unknown", "timeseries.spectra.origins", sub(r"^    origins: all", "    origins: some"))
+tcase("spectra-unknown-key", "timeseries.spectra.window", sub(r"^    detrend: none", "    detrend: none\n    window: hann"))
+tcase("no-probes", "probes", sub(r"^probes:\n(  .*\n|\n)+?(?=threads:)", "probes: []\n"))
+tcase("probes-not-list", "probes", sub(r"^probes:\n(  .*\n|\n)+?(?=threads:)", "probes: pin\n"))
+tcase("probe-kind-unknown", "probes[0].kind", sub(r"^    kind: dipole", "    kind: antenna"))
+tcase("probe-kind-missing", "probes[0].kind", drop(r"^    kind: dipole"))
+tcase("probe-outside", "probes[1].at", sub(r"at: \[0.004, 0.010, 0.020\]\n    normal", "at: [0.004, 0.030, 0.020]\n    normal"))
+tcase("probe-zero-direction", "probes[0].direction", sub(r"direction: \[0, 1, 0\]", "direction: [0, 0, 0]"))
+tcase("probe-length-negative", "probes[0].length_m", sub(r"length_m: 0.002", "length_m: -0.002"))
+tcase("probe-duplicate-name", "probes[1].name", sub(r"- name: loop ", "- name: pin "))
+tcase("probe-reserved-name", "probes[0].name", sub(r"- name: pin ", "- name: step "))
+tcase("probe-bad-name", "probes[0].name", sub(r"- name: pin ", "- name: 'pin antenna' "))
+tcase("probe-unknown-key", "probes[0].normal", sub(r"direction: \[0, 1, 0\]", "normal: [0, 1, 0]"))
+tcase("loop-output-unknown", "probes[1].output", sub(r"output: emf", "output: current"))
+tcase("loop-area-zero", "probes[1].area_m2", sub(r"area_m2: 1.0e-6", "area_m2: 0"))
+tcase("field-probe-component", "probes[1].component", sub(r"- name: loop .*\n    kind: loop\n(    .*\n)+?(?=\n|threads:)",
+      "- name: ez\n    kind: field\n    field: E\n    component: w\n    at: [0.004, 0.010, 0.020]\n"))
+
+for f in glob.glob("ts-[0-9][0-9]-*.yaml"):
+    os.remove(f)
+for i, (name, expect, fn) in enumerate(ts):
+    with open(f"ts-{i:02d}-{name}.yaml", "w") as out:
+        out.write(f"# expect: {expect}\n" + fn(noise))
+print(len(ts), "time-series cases")

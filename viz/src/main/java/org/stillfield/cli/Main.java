@@ -20,7 +20,7 @@ import picocli.CommandLine.Command;
         "Samples the quantum vacuum (or thermal) electromagnetic field of a perfectly conducting cavity,",
         "writes the ensemble as Parquet, checks its correlations against the analytic mode sum and plots a report."},
     subcommands = {RunCommand.class, ModesCommand.class, SampleCommand.class, AnalyzeCommand.class,
-        PlotCommand.class, VerifyCommand.class, CommandLine.HelpCommand.class})
+        PlotCommand.class, VerifyCommand.class, NoiseCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     /** Success. */
     public static final int OK = 0;

@@ -5,8 +5,11 @@ import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.concurrent.Callable;
 import org.stillfield.sampler.spec.RunSpec;
+import org.stillfield.sampler.spec.SpecReader;
+import org.stillfield.sampler.timeseries.TimeSeriesSpec;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -15,7 +18,9 @@ import picocli.CommandLine.Spec;
 /** Every step: modes, sample, analyze, plot. */
 @Command(name = "run", mixinStandardHelpOptions = true,
     description = {"Do every step for a spec: enumerate modes, draw and write the ensemble, analyse it against the",
-        "analytic mode sum and render the report. Exit 0 when the verdict passes, 1 when it fails, 2 on bad input."})
+        "analytic mode sum and render the report. Exit 0 when the verdict passes, 1 when it fails, 2 on bad input.",
+        "A spec with a timeseries section also gets the noise step (see 'noise'); each verdict uses the spec's",
+        "false_alarm, and the run fails when either fails."})
 final class RunCommand implements Callable<Integer> {
     @Mixin
     SpecOptions specOptions;
@@ -34,6 +39,10 @@ final class RunCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         RunSpec spec = shardOptions.apply(specOptions.load());
         PrintWriter out = command.commandLine().getOut();
+        // The noise step's settings are checked against the modes before anything is drawn.
+        Optional<TimeSeriesSpec> ts = SpecReader.timeSeries(spec);
+        NoisePipeline.Setup noiseSetup = ts.isPresent()
+            ? NoisePipeline.prepare(spec, ts.get(), command.commandLine().getErr()) : null;
         Pipeline.SampleSummary s = Pipeline.sample(spec, overwrite, !shardOptions.noSpaceCheck, out);
         Pipeline.printSample(s, out);
         if (!s.analyse()) {
@@ -51,11 +60,21 @@ final class RunCommand implements Callable<Integer> {
             : String.format(Locale.ROOT, "%.2f s for %d of %d samples (the rest written earlier or by other shards)",
                 s.seconds(), s.written(), s.samples()));
         facts.put("analysis time", String.format(Locale.ROOT, "%.2f s", analysisSeconds));
+        NoisePipeline.Result noise = null;
+        if (noiseSetup != null) {
+            noise = NoisePipeline.run(noiseSetup, overwrite, out, true);
+            facts.put("noise time series", noise.seriesFolder() + " (report/noise.html, verdict "
+                + (noise.verdict().passed() ? "PASS" : "FAIL") + ")");
+        }
         Path report = Pipeline.plot(s.folder(), a, facts);
         out.println("analysis: " + s.folder().resolve("analysis"));
         out.println("report:   " + report);
         Pipeline.printVerdict(a, out);
+        if (noise != null) {
+            NoisePipeline.print(noise, out);
+        }
         out.flush();
-        return a.verdict().passed() ? Main.OK : Main.VERDICT_FAILED;
+        boolean passed = a.verdict().passed() && (noise == null || noise.verdict().passed());
+        return passed ? Main.OK : Main.VERDICT_FAILED;
     }
 }

@@ -7,7 +7,7 @@ import org.stillfield.sampler.api.Version;
 
 /** Renders {@link RunReport.Content} as one self-contained HTML page. */
 final class ReportHtml {
-    private static final String CSS = String.join("\n",
+    static final String CSS = String.join("\n",
         ":root{--ink:#22262e;--muted:#5c6370;--line:#e1e4ea;--paper:#ffffff;--wash:#f5f6f8;",
         "--pass:#1e7b4f;--pass-wash:#e8f4ee;--fail:#b3261e;--fail-wash:#fbeceb;--none:#6b6f78;}",
         "*{box-sizing:border-box}",

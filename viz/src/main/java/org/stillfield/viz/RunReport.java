@@ -100,8 +100,20 @@ public final class RunReport {
         c = new Content(c.name(), c.headline(), c.verdict(), c.samples(), c.tests(), List.copyOf(more), c.figures(),
             c.figurePaths(), c.worstHeader(), c.worst(), c.footer());
         Path html = reportFolder.resolve(HTML);
-        Files.writeString(html, ReportHtml.render(c), StandardCharsets.UTF_8);
-        Files.writeString(reportFolder.resolve(MARKDOWN), ReportMarkdown.render(c), StandardCharsets.UTF_8);
+        String page = ReportHtml.render(c);
+        String md = ReportMarkdown.render(c);
+        // A noise page written beside this one (by the noise step) gets a link ahead of the settings.
+        if (Files.isRegularFile(reportFolder.resolve(NoiseReport.HTML))) {
+            page = page.replaceFirst("<h2>Settings</h2>", java.util.regex.Matcher.quoteReplacement(
+                "<h2>Noise time series</h2>\n<p><a href=\"" + NoiseReport.HTML + "\">Probe time series, spectra, two-time"
+                    + " correlations and noise temperatures</a> (separate page, with its own verdict).</p>\n"
+                    + "<h2>Settings</h2>"));
+            md = md.replaceFirst("## Settings", java.util.regex.Matcher.quoteReplacement("## Noise time series\n\n"
+                + "[Probe time series, spectra, two-time correlations and noise temperatures](" + NoiseReport.HTML
+                + ") (separate page, with its own verdict).\n\n## Settings"));
+        }
+        Files.writeString(html, page, StandardCharsets.UTF_8);
+        Files.writeString(reportFolder.resolve(MARKDOWN), md, StandardCharsets.UTF_8);
         return html;
     }
 

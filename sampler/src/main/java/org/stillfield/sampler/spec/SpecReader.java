@@ -11,6 +11,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
@@ -25,6 +26,8 @@ import org.stillfield.sampler.api.PointSet;
 import org.stillfield.sampler.api.ThermalState;
 import org.stillfield.sampler.api.Vec3;
 import org.stillfield.sampler.api.Window;
+import org.stillfield.sampler.timeseries.LossModel;
+import org.stillfield.sampler.timeseries.TimeSeriesSpec;
 
 /**
  * Reads a YAML run spec (see {@code runs/} for commented examples) into a {@link RunSpec}, or
@@ -35,7 +38,7 @@ public final class SpecReader {
     public static final int MAX_POINTS = 4_000_000;
 
     private static final List<String> TOP = List.of("name", "cavity", "state", "fields", "window", "samples", "seed",
-        "evaluate", "output", "analysis", "limits", "threads");
+        "evaluate", "output", "analysis", "limits", "threads", "timeseries", "probes");
     private static final Pattern REF = Pattern.compile("([A-Za-z0-9_.-]+)\\[(\\d+)]");
 
     private SpecReader() {
@@ -96,6 +99,7 @@ public final class SpecReader {
         }
         long seed = root.integer("seed", 1, Long.MIN_VALUE, Long.MAX_VALUE);
         List<PointSet> sets = evaluate(root.child("evaluate"), cavity);
+        timeSeries(root, cavity, samples); // validated now so bad input fails early; see timeSeries(RunSpec)
 
         SpecNode out = root.child("output");
         out.rejectUnknown(List.of("folder", "precision", "part_samples", "shard"));
@@ -148,6 +152,74 @@ public final class SpecReader {
             throw new SpecException(limits.at(key), "must be a positive, finite number of GB (1 GB = 1e9 bytes), got " + v);
         }
         return v;
+    }
+
+    /**
+     * The noise time-series sections ({@code timeseries:} and {@code probes:}) of a spec.
+     *
+     * <p>They are parsed again from {@link RunSpec#sourceText()} rather than carried as a component of
+     * {@link RunSpec}, so that the record's shape (and every caller that builds or copies it) stays as it
+     * is; {@link #parse} has already validated the same text, so this fails only for a spec that was not
+     * made by this reader. The default number of trajectories is {@code spec.samples()}, so a command-line
+     * override of the sample count carries over when {@code timeseries.samples} is absent.
+     *
+     * @param spec a spec made by this reader
+     * @return the sections, or empty when the spec has no {@code timeseries:} section
+     * @throws SpecException naming the first bad setting
+     */
+    public static Optional<TimeSeriesSpec> timeSeries(RunSpec spec) throws SpecException {
+        Object doc;
+        try {
+            doc = new Load(LoadSettings.builder().setAllowDuplicateKeys(false).build()).loadFromString(spec.sourceText());
+        } catch (YamlEngineException ex) {
+            throw new SpecException("", "not valid YAML: " + ex.getMessage());
+        }
+        return timeSeries(SpecNode.of("", doc), spec.cavity(), spec.samples());
+    }
+
+    private static Optional<TimeSeriesSpec> timeSeries(SpecNode root, Cavity cavity, long samples)
+        throws SpecException {
+        if (!root.has("timeseries")) {
+            if (root.has("probes")) {
+                throw new SpecException("probes", "needs a timeseries section (time step and steps) to read the probes");
+            }
+            return Optional.empty();
+        }
+        TimeSeriesSpec ts = TimeSeriesSpec.read(root.child("timeseries"), root.children("probes"), cavity, samples);
+        if (ts.probes().isEmpty()) {
+            throw new SpecException("probes", "the timeseries section needs at least one probe (dipole,"
+                + " smeared_dipole, loop or field)");
+        }
+        for (int i = 0; i < ts.probes().size(); i++) {
+            // The time-series table's own columns (TimeSeriesWriter.RESERVED); probe columns take the probe's name.
+            if (List.of("sample", "step", "t_s").contains(ts.probes().get(i).name())) {
+                throw new SpecException("probes[" + i + "].name", "'" + ts.probes().get(i).name() + "' is reserved for a"
+                    + " column of the time-series table (sample, step, t_s); choose another name");
+            }
+        }
+        if (ts.samples() < 2) {
+            throw new SpecException("timeseries.samples", "must be at least 2 (standard errors come from the spread"
+                + " over trajectories), got " + ts.samples());
+        }
+        if (usesWallLoss(ts.loss()) && !(cavity instanceof org.stillfield.sampler.geometry.RectangularCavity)) {
+            throw new SpecException("timeseries.loss.wall_sigma_S_per_m", "is implemented for cavity shape box only,"
+                + " got shape " + cavity.shape() + "; give timeseries.loss.q instead");
+        }
+        return Optional.of(ts);
+    }
+
+    private static boolean usesWallLoss(LossModel loss) {
+        if (loss instanceof LossModel.WallConductivity) {
+            return true;
+        }
+        if (loss instanceof LossModel.Combined) {
+            for (LossModel part : ((LossModel.Combined) loss).parts()) {
+                if (usesWallLoss(part)) {
+                    return true;
+                }
+            }
+        }
+        return false;
     }
 
     private static Cavity cavity(SpecNode node) throws SpecException {
