@@ -1,5 +1,6 @@
 package org.stillfield.sampler.io;
 
+import java.util.List;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -51,17 +52,24 @@ public final class ResourceGuard {
         int nFields = spec.fields().size();
         boolean needU = spec.fields().contains(Field.A) || spec.fields().contains(Field.E);
         boolean needH = spec.fields().contains(Field.B);
-        double basis = 3 * m * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0)) * points;
+        // Grids of a cavity with an exact tensor-product sum need no per-point basis, only small
+        // per-axis sin/cos tables (at most ~2(6M/π)^{1/3} indices per axis) and per-thread scratch.
+        boolean fastGrids = spec.cavity().tensorGridSum(List.of(), new double[] {0}, new double[] {0}, new double[] {0}) != null;
+        double axisIndices = 2 * Math.cbrt(6 * m / Math.PI) + 2;
+        double grids = 0;
+        double genericPoints = 0;
+        for (PointSet s : spec.pointSets()) {
+            if (s.kind() == PointSet.Kind.GRID && fastGrids) {
+                int[] d = s.dims();
+                grids += 6 * 8 * axisIndices * ((double) d[0] + d[1] + d[2]) + 16.0 * 8 * axisIndices * axisIndices * axisIndices;
+            } else {
+                genericPoints += s.size();
+            }
+        }
+        double basis = 3 * m * 8 * ((needU ? 1 : 0) + (needH ? 1 : 0)) * genericPoints;
         double cache = Math.min(basis, EnsembleRunner.DEFAULT_CACHE_BYTES);
         double perSample = 8 * (2 * m + 3 * points * nFields);
         double batch = Math.max(1, Math.min(256, Math.floor(EnsembleRunner.DEFAULT_BATCH_BYTES / Math.max(1, perSample))));
-        double grids = 0;
-        for (PointSet s : spec.pointSets()) {
-            if (s.kind() == PointSet.Kind.GRID) {
-                int[] d = s.dims();
-                grids += 6 * 8 * m * ((double) d[0] + d[1] + d[2]);
-            }
-        }
         double tables = 512 * m + 128 * points;
         double bytes = cache + 2 * batch * perSample + grids + 2.0 * DatasetWriter.ROW_GROUP_BYTES + tables;
         return (long) Math.min(Long.MAX_VALUE / 2, Math.ceil(bytes));
