@@ -82,7 +82,7 @@ public final class CorrelationTables {
     public static void writeCsv(CorrelationResult result, List<Vec3> points, List<String> pointNames, Path file)
         throws IOException {
         check(result, points, pointNames);
-        writeAtomically(file, w -> {
+        AtomicText.write(file, w -> {
             w.write(CSV_HEADER);
             w.write('\n');
             for (CorrelationRow r : result.rows()) {
@@ -147,7 +147,7 @@ public final class CorrelationTables {
             o.put("status", status(r));
             o.put("unit", r.field().correlationUnit());
         }
-        writeAtomically(file, w -> w.write(JSON.writeValueAsString(root) + "\n"));
+        AtomicText.write(file, w -> w.write(JSON.writeValueAsString(root) + "\n"));
     }
 
     /**
@@ -167,7 +167,7 @@ public final class CorrelationTables {
         for (Verdict v : parts) {
             list.add(verdictNode(Objects.requireNonNull(v, "parts element")));
         }
-        writeAtomically(file, w -> w.write(JSON.writeValueAsString(root) + "\n"));
+        AtomicText.write(file, w -> w.write(JSON.writeValueAsString(root) + "\n"));
     }
 
     private static ObjectNode verdictNode(Verdict v) {
@@ -228,24 +228,4 @@ public final class CorrelationTables {
         return '"' + s.replace("\"", "\"\"") + '"';
     }
 
-    private interface Body {
-        void write(Writer w) throws IOException;
-    }
-
-    private static void writeAtomically(Path file, Body body) throws IOException {
-        Objects.requireNonNull(file, "file");
-        Path abs = file.toAbsolutePath();
-        Path tmp = abs.resolveSibling(abs.getFileName() + ".tmp");
-        try (Writer w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8)) {
-            body.write(w);
-        } catch (IOException | RuntimeException ex) {
-            Files.deleteIfExists(tmp);
-            throw ex;
-        }
-        try {
-            Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        } catch (java.nio.file.AtomicMoveNotSupportedException ex) {
-            Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
-        }
-    }
 }

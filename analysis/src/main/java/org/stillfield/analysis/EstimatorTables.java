@@ -206,7 +206,7 @@ public final class EstimatorTables {
         ArrayNode notes = root.putArray("notes");
         result.notes().forEach(notes::add);
         Path summary = folder.resolve(SUMMARY);
-        writeAtomically(summary, w -> w.write(JSON.writeValueAsString(root) + "\n"));
+        AtomicText.write(summary, w -> w.write(JSON.writeValueAsString(root) + "\n"));
         files.add(summary);
         return files;
     }
@@ -272,12 +272,8 @@ public final class EstimatorTables {
         return name.replaceAll("[^A-Za-z0-9_.-]", "_");
     }
 
-    private interface Body {
-        void write(Writer w) throws IOException;
-    }
-
     private static void writeLines(Path file, List<String> lines) throws IOException {
-        writeAtomically(file, w -> {
+        AtomicText.write(file, w -> {
             for (String l : lines) {
                 w.write(l);
                 w.write('\n');
@@ -285,19 +281,4 @@ public final class EstimatorTables {
         });
     }
 
-    private static void writeAtomically(Path file, Body body) throws IOException {
-        Path abs = file.toAbsolutePath();
-        Path tmp = abs.resolveSibling(abs.getFileName() + ".tmp");
-        try (Writer w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8)) {
-            body.write(w);
-        } catch (IOException | RuntimeException ex) {
-            Files.deleteIfExists(tmp);
-            throw ex;
-        }
-        try {
-            Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        } catch (java.nio.file.AtomicMoveNotSupportedException ex) {
-            Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
-        }
-    }
 }
