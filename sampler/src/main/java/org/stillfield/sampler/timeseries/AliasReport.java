@@ -59,8 +59,8 @@ public record AliasReport(double dtSeconds, double nyquistHz, int modeCount, Lis
             sb.append(", ...");
         }
         return String.format(Locale.ROOT,
-            "time.dt_s = %.6g s puts the Nyquist frequency at %.6g Hz; %d of %d modes lie at or above it (%s;"
-                + " highest %.6g Hz) and appear at folded frequencies in spectra; use time.dt_s < %.6g s or lower"
+            "timeseries.dt_s = %.6g s puts the Nyquist frequency at %.6g Hz; %d of %d modes lie at or above it (%s;"
+                + " highest %.6g Hz) and appear at folded frequencies in spectra; use timeseries.dt_s < %.6g s or lower"
                 + " window.cutoff", dtSeconds, nyquistHz, modes.size(), modeCount, sb, highestHz, largestCleanDt());
     }
 }

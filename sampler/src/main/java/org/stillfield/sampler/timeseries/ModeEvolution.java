@@ -96,7 +96,7 @@ public final class ModeEvolution {
                 + table.size());
         }
         if (!(dtSeconds > 0) || !Double.isFinite(dtSeconds)) {
-            throw new IllegalArgumentException("time.dt_s must be positive and finite (seconds): " + dtSeconds);
+            throw new IllegalArgumentException("timeseries.dt_s must be positive and finite (seconds): " + dtSeconds);
         }
         return new ModeEvolution(table, damping, dtSeconds);
     }

@@ -20,10 +20,10 @@ public record TimeGrid(double dtSeconds, int steps) {
     /** Validates. */
     public TimeGrid {
         if (!(dtSeconds > 0) || !Double.isFinite(dtSeconds)) {
-            throw new IllegalArgumentException("time.dt_s must be positive and finite (seconds): " + dtSeconds);
+            throw new IllegalArgumentException("timeseries.dt_s must be positive and finite (seconds): " + dtSeconds);
         }
         if (steps < 1) {
-            throw new IllegalArgumentException("time.steps must be >= 1: " + steps);
+            throw new IllegalArgumentException("timeseries.steps must be >= 1: " + steps);
         }
     }
 

@@ -205,6 +205,6 @@ class ModeEvolutionTest {
         assertTrue(ex.getMessage().contains("damping covers 1 modes"), ex.getMessage());
         ex = assertThrows(IllegalArgumentException.class,
             () -> ModeEvolution.of(t, ModeDamping.of(t, LossModel.lossless()), 0.0));
-        assertTrue(ex.getMessage().contains("time.dt_s") && ex.getMessage().contains("0.0"), ex.getMessage());
+        assertTrue(ex.getMessage().contains("timeseries.dt_s") && ex.getMessage().contains("0.0"), ex.getMessage());
     }
 }

@@ -37,7 +37,7 @@ class TimeGridTest {
         assertEquals(t.frequency(5), r.highestHz(), 1e-3);
         assertEquals(0.5 / t.frequency(5), r.largestCleanDt(), 1e-25);
         String msg = r.message();
-        assertTrue(msg.contains("time.dt_s") && msg.contains("4 of 6 modes") && msg.contains("TE_1,0,2")
+        assertTrue(msg.contains("timeseries.dt_s") && msg.contains("4 of 6 modes") && msg.contains("TE_1,0,2")
             && msg.contains("8.50000e+09 Hz"), msg);
         // A step below 1/(2 f_max) aliases nothing and says nothing.
         AliasReport clean = new TimeGrid(0.99 * r.largestCleanDt(), 10).aliasing(t);
@@ -48,9 +48,9 @@ class TimeGridTest {
     @Test
     void rejectsBadSteps() {
         IllegalArgumentException ex = assertThrows(IllegalArgumentException.class, () -> new TimeGrid(Double.NaN, 3));
-        assertTrue(ex.getMessage().contains("time.dt_s") && ex.getMessage().contains("NaN"), ex.getMessage());
+        assertTrue(ex.getMessage().contains("timeseries.dt_s") && ex.getMessage().contains("NaN"), ex.getMessage());
         assertThrows(IllegalArgumentException.class, () -> new TimeGrid(-1e-9, 3));
         ex = assertThrows(IllegalArgumentException.class, () -> new TimeGrid(1e-9, 0));
-        assertTrue(ex.getMessage().contains("time.steps") && ex.getMessage().contains("0"), ex.getMessage());
+        assertTrue(ex.getMessage().contains("timeseries.steps") && ex.getMessage().contains("0"), ex.getMessage());
     }
 }
