@@ -53,6 +53,8 @@ public final class SpecReader {
         String text;
         try {
             text = Files.readString(file, StandardCharsets.UTF_8);
+        } catch (java.nio.file.NoSuchFileException ex) {
+            throw new SpecException("", "spec file " + file + " does not exist");
         } catch (IOException | RuntimeException ex) {
             throw new SpecException("", "cannot read spec file " + file + ": " + ex.getMessage());
         }
