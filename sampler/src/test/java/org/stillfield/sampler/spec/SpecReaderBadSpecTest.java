@@ -238,7 +238,7 @@ class SpecReaderBadSpecTest {
         assertTrue(ex.getMessage().contains("cannot read spec file"), ex.getMessage());
         Path missing = Path.of("src/test/resources/spec-bad/no-such-spec.yaml");
         SpecException gone = assertThrows(SpecException.class, () -> SpecReader.read(missing));
-        assertTrue(gone.getMessage().contains("cannot read spec file") && gone.getMessage().contains("no-such-spec.yaml"),
+        assertTrue(gone.getMessage().contains("does not exist") && gone.getMessage().contains("no-such-spec.yaml"),
             gone.getMessage());
     }
 
