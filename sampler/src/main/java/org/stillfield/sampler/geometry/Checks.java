@@ -15,4 +15,25 @@ final class Checks {
             throw new IllegalArgumentException(name + " must be positive and finite (metres): " + v);
         }
     }
+
+    /**
+     * @param mode a mode of a cylinder or sphere
+     * @param shape the cavity's name, for the message
+     * @return true for TM, false for TE
+     * @throws IllegalArgumentException for any other family
+     */
+    static boolean isTm(org.stillfield.sampler.api.Mode mode, String shape) {
+        if ("TM".equals(mode.family())) {
+            return true;
+        }
+        if ("TE".equals(mode.family())) {
+            return false;
+        }
+        throw new IllegalArgumentException("not a " + shape + " mode (family must be TE or TM): " + mode.label());
+    }
+
+    /** Key of one radial function: its order n and its family, for sharing it between modes. */
+    static long radialKey(boolean isTm, int n) {
+        return ((long) n << 1) | (isTm ? 1L : 0L);
+    }
 }

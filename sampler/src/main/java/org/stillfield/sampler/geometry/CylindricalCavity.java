@@ -199,12 +199,12 @@ public final class CylindricalCavity implements Cavity {
             // Zeros needed per (family, n): the largest radial index m.
             Map<Long, Integer> needed = new HashMap<>();
             for (Mode mode : modes) {
-                boolean isTm = family(mode);
+                boolean isTm = Checks.isTm(mode, "cylinder");
                 if (mode.i1() < 0 || mode.i2() < 1 || mode.i3() < (isTm ? 0 : 1)
                     || mode.orientation() < 0 || mode.orientation() > (mode.i1() == 0 ? 0 : 1)) {
                     throw new IllegalArgumentException("not a cylinder mode: " + mode.label());
                 }
-                needed.merge(key(isTm, mode.i1()), mode.i2(), Math::max);
+                needed.merge(Checks.radialKey(isTm, mode.i1()), mode.i2(), Math::max);
             }
             Map<Long, double[]> zeros = new HashMap<>();
             for (Map.Entry<Long, Integer> e : needed.entrySet()) {
@@ -221,13 +221,13 @@ public final class CylindricalCavity implements Cavity {
             double v = volume();
             for (int q = 0; q < count; q++) {
                 Mode mode = modes.get(q);
-                boolean isTm = family(mode);
+                boolean isTm = Checks.isTm(mode, "cylinder");
                 int n = mode.i1();
                 int m = mode.i2();
                 int p = mode.i3();
-                double x = zeros.get(key(isTm, n))[m - 1];
+                double x = zeros.get(Checks.radialKey(isTm, n))[m - 1];
                 double gamma = x / radius;
-                long rk = (key(isTm, n) << 20) | m;
+                long rk = (Checks.radialKey(isTm, n) << 20) | m;
                 Integer r = radialIndex.get(rk);
                 if (r == null) {
                     r = orders.size();
@@ -266,19 +266,6 @@ public final class CylindricalCavity implements Cavity {
             pMax = pm;
         }
 
-        private boolean family(Mode mode) {
-            if ("TM".equals(mode.family())) {
-                return true;
-            }
-            if ("TE".equals(mode.family())) {
-                return false;
-            }
-            throw new IllegalArgumentException("not a cylinder mode (family must be TE or TM): " + mode.label());
-        }
-
-        private long key(boolean isTm, int n) {
-            return ((long) n << 1) | (isTm ? 1L : 0L);
-        }
 
         @Override
         public int modeCount() {

@@ -172,12 +172,12 @@ public final class SphericalCavity implements Cavity {
             amp = new double[count];
             Map<Long, Integer> needed = new HashMap<>();
             for (Mode mode : modes) {
-                boolean isTm = family(mode);
+                boolean isTm = Checks.isTm(mode, "sphere");
                 int n = mode.i1();
                 if (n < 1 || mode.i2() < 1 || mode.i3() != 0 || mode.orientation() < 0 || mode.orientation() > 2 * n) {
                     throw new IllegalArgumentException("not a sphere mode: " + mode.label());
                 }
-                needed.merge(key(isTm, n), mode.i2(), Math::max);
+                needed.merge(Checks.radialKey(isTm, n), mode.i2(), Math::max);
             }
             Map<Long, double[]> zeros = new HashMap<>();
             for (Map.Entry<Long, Integer> e : needed.entrySet()) {
@@ -194,11 +194,11 @@ public final class SphericalCavity implements Cavity {
             double[] t = new double[4];
             for (int q = 0; q < count; q++) {
                 Mode mode = modes.get(q);
-                boolean isTm = family(mode);
+                boolean isTm = Checks.isTm(mode, "sphere");
                 int n = mode.i1();
                 int l = mode.i2();
-                double x = zeros.get(key(isTm, n))[l - 1];
-                long rk = (key(isTm, n) << 20) | l;
+                double x = zeros.get(Checks.radialKey(isTm, n))[l - 1];
+                long rk = (Checks.radialKey(isTm, n) << 20) | l;
                 Integer r = radialIndex.get(rk);
                 if (r == null) {
                     r = orders.size();
@@ -224,19 +224,6 @@ public final class SphericalCavity implements Cavity {
             nMax = nm;
         }
 
-        private boolean family(Mode mode) {
-            if ("TM".equals(mode.family())) {
-                return true;
-            }
-            if ("TE".equals(mode.family())) {
-                return false;
-            }
-            throw new IllegalArgumentException("not a sphere mode (family must be TE or TM): " + mode.label());
-        }
-
-        private long key(boolean isTm, int n) {
-            return ((long) n << 1) | (isTm ? 1L : 0L);
-        }
 
         @Override
         public int modeCount() {
