@@ -62,6 +62,20 @@ for (const [table, per] of [['amplitudes', M], ['fields', P]]) {
   else console.log(`DuckDB reads ${table}/*.parquet as one table: ${n} rows, ${s} samples`);
 }
 
+// Nulls: a point outside the cavity has null field values in every sample, one inside never does
+// (the points table's inside flag, joined by DuckDB, against the fields' first value column).
+{
+  const cols = (await q(`select name from parquet_schema(${lit(join(dir, 'fields', 'part-00000.parquet'))})`)).map((r) => r.name);
+  const col = cols.find((c) => /^[AEB]_x$/.test(c));
+  const [{ bad, inside }] = await q(`select
+      count(*) filter (where (p.inside and f.${col} is null) or (not p.inside and f.${col} is not null))::BIGINT as bad,
+      count(*) filter (where p.inside)::BIGINT as inside
+    from read_parquet(${lit(join(dir, 'fields', '*.parquet'))}) f join read_parquet(${lit(join(dir, 'points.parquet'))}) p
+      on f.point = p.point`);
+  if (BigInt(bad) !== 0n) fail(`fields: ${bad} rows whose ${col} null-ness disagrees with the points table's inside flag`);
+  else console.log(`DuckDB: ${col} is null exactly outside the cavity (${inside} values inside)`);
+}
+
 if (flag !== '--no-analysis') {
   const table = JSON.parse(readFileSync(join(dir, 'analysis', 'correlations.json'), 'utf8'));
   const rows = table.rows ?? table.correlations ?? [];

@@ -245,8 +245,6 @@ public final class DatasetWriter implements EnsembleSink {
     private final boolean[] inside;
     private final boolean float32;
     private final Map<String, String> common;
-    private final AmplitudeRow amplitudeRow = new AmplitudeRow();
-    private final FieldRow fieldRow;
     private final ExecutorService helper = Executors.newSingleThreadExecutor(r -> {
         Thread t = new Thread(r, "stillfield-dataset-writer");
         t.setDaemon(true);
@@ -259,8 +257,8 @@ public final class DatasetWriter implements EnsembleSink {
     private long partFirst;
     private long partEnd;
     private long nextSample = -1;
-    private RowWriter amplitudes;
-    private RowWriter fieldValues;
+    private ColumnBlockWriter amplitudes;
+    private ColumnBlockWriter fieldValues;
     private Path amplitudesTemp;
     private Path fieldsTemp;
     private State state = State.OPEN;
@@ -446,7 +444,6 @@ public final class DatasetWriter implements EnsembleSink {
             inside[p] = table.cavity().contains(points.get(p));
         }
         this.float32 = spec.precision() == RunSpec.Precision.FLOAT32;
-        this.fieldRow = new FieldRow(fields.size());
         this.pendingParts = plan.pendingParts;
         Map<String, String> c = Layout.commonFooter(spec, table.cavity(), table.window(), table.state());
         c.put(Layout.KEY_RUN_KEY, plan.runKey);
@@ -791,8 +788,10 @@ public final class DatasetWriter implements EnsembleSink {
         fieldsTemp = temp(target.resolve(Layout.part(Layout.FIELDS, k)));
         Layout.Table at = Layout.amplitudes();
         Layout.Table ft = Layout.fields(spec.fields(), spec.precision());
-        amplitudes = new RowWriter(amplitudesTemp, at.schema(), Layout.footer(footer, at), ROW_GROUP_BYTES);
-        fieldValues = new RowWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES);
+        amplitudes = new ColumnBlockWriter(amplitudesTemp, at.schema(), Layout.footer(footer, at), ROW_GROUP_BYTES, RowWriter.CODEC,
+            ColumnBlockWriter.pageRows(modeCount));
+        fieldValues = new ColumnBlockWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES, RowWriter.CODEC,
+            ColumnBlockWriter.pageRows(pointCount));
     }
 
     private String describeParts() {
@@ -835,26 +834,58 @@ public final class DatasetWriter implements EnsembleSink {
 
     private void writeAmplitudes(SampleBatch batch, int from, int count) throws IOException {
         for (int s = from; s < from + count; s++) {
-            amplitudeRow.sample = batch.firstSample() + s;
-            amplitudeRow.q = batch.q(s);
-            amplitudeRow.e = batch.e(s);
-            for (int l = 0; l < modeCount; l++) {
-                amplitudeRow.mode = l;
-                amplitudes.write(amplitudeRow);
-            }
+            long sample = batch.firstSample() + s;
+            double[] q = batch.q(s);
+            double[] e = batch.e(s);
+            amplitudes.append(modeCount, (first, n, page, at) -> {
+                int l0 = (int) first;
+                java.util.Arrays.fill(page.int64(0), at, at + n, sample);
+                int[] mode = page.int32(1);
+                for (int r = 0; r < n; r++) {
+                    mode[at + r] = l0 + r;
+                }
+                System.arraycopy(q, l0, page.float64(2), at, n);
+                System.arraycopy(e, l0, page.float64(3), at, n);
+            });
         }
     }
 
     private void writeFields(SampleBatch batch, int from, int count) throws IOException {
+        double[][] values = new double[fields.size()][];
         for (int s = from; s < from + count; s++) {
             for (int f = 0; f < fields.size(); f++) {
-                fieldRow.values[f] = batch.values(fields.get(f), s);
+                values[f] = batch.values(fields.get(f), s);
             }
-            fieldRow.sample = batch.firstSample() + s;
-            for (int p = 0; p < pointCount; p++) {
-                fieldRow.point = p;
-                fieldValues.write(fieldRow);
-            }
+            long sample = batch.firstSample() + s;
+            fieldValues.append(pointCount, (first, n, page, at) -> {
+                int p0 = (int) first;
+                java.util.Arrays.fill(page.int64(0), at, at + n, sample);
+                int[] point = page.int32(1);
+                boolean[] present = page.present();
+                for (int r = 0; r < n; r++) {
+                    point[at + r] = p0 + r;
+                    present[at + r] = inside[p0 + r];
+                }
+                // Columns 2.. are the fields' x, y, z components in schema order; values are
+                // interleaved per point (v[3p + i]).
+                for (int f = 0; f < values.length; f++) {
+                    double[] v = values[f];
+                    for (int i = 0; i < 3; i++) {
+                        int col = 2 + 3 * f + i;
+                        if (float32) {
+                            float[] dst = page.float32(col);
+                            for (int r = 0; r < n; r++) {
+                                dst[at + r] = (float) v[3 * (p0 + r) + i];
+                            }
+                        } else {
+                            double[] dst = page.float64(col);
+                            for (int r = 0; r < n; r++) {
+                                dst[at + r] = v[3 * (p0 + r) + i];
+                            }
+                        }
+                    }
+                }
+            });
         }
     }
 
@@ -869,7 +900,7 @@ public final class DatasetWriter implements EnsembleSink {
         rec.put("samples", partEnd - partFirst);
         ArrayNode files = rec.putArray("files");
         String[] names = {Layout.part(Layout.AMPLITUDES, part), Layout.part(Layout.FIELDS, part)};
-        RowWriter[] writers = {amplitudes, fieldValues};
+        ColumnBlockWriter[] writers = {amplitudes, fieldValues};
         Path[] temps = {amplitudesTemp, fieldsTemp};
         for (int i = 0; i < 2; i++) {
             Path dest = target.resolve(names[i]);
@@ -1096,7 +1127,7 @@ public final class DatasetWriter implements EnsembleSink {
         }
         state = State.CLOSED;
         helper.shutdown();
-        for (RowWriter w : new RowWriter[] {amplitudes, fieldValues}) {
+        for (ColumnBlockWriter w : new ColumnBlockWriter[] {amplitudes, fieldValues}) {
             if (w != null) {
                 try {
                     w.close();
@@ -1133,57 +1164,6 @@ public final class DatasetWriter implements EnsembleSink {
         }
         for (int i = all.size() - 1; i >= 0; i--) {
             Files.deleteIfExists(all.get(i));
-        }
-    }
-
-    /** One (sample, mode) row; reused for every row. */
-    private static final class AmplitudeRow implements RowWriter.Row {
-        long sample;
-        int mode;
-        double[] q;
-        double[] e;
-
-        @Override
-        public void emit(RowWriter w) {
-            w.addLong(sample);
-            w.addInt(mode);
-            w.addDouble(q[mode]);
-            w.addDouble(e[mode]);
-        }
-    }
-
-    /** One (sample, point) row; reused for every row. Outside the cavity the values are null. */
-    private final class FieldRow implements RowWriter.Row {
-        long sample;
-        int point;
-        final double[][] values;
-
-        FieldRow(int fieldCount) {
-            values = new double[fieldCount][];
-        }
-
-        @Override
-        public void emit(RowWriter w) {
-            w.addLong(sample);
-            w.addInt(point);
-            int base = 3 * point;
-            if (!inside[point]) {
-                for (int n = 0; n < 3 * values.length; n++) {
-                    w.addNull();
-                }
-                return;
-            }
-            for (double[] v : values) {
-                if (float32) {
-                    w.addFloat((float) v[base]);
-                    w.addFloat((float) v[base + 1]);
-                    w.addFloat((float) v[base + 2]);
-                } else {
-                    w.addDouble(v[base]);
-                    w.addDouble(v[base + 1]);
-                    w.addDouble(v[base + 2]);
-                }
-            }
         }
     }
 }

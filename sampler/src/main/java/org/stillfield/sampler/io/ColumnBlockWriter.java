@@ -1,0 +1,437 @@
+package org.stillfield.sampler.io;
+
+import java.io.Closeable;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import org.apache.parquet.bytes.BytesInput;
+import org.apache.parquet.bytes.HeapByteBufferAllocator;
+import org.apache.parquet.column.ColumnDescriptor;
+import org.apache.parquet.column.Encoding;
+import org.apache.parquet.column.statistics.Statistics;
+import org.apache.parquet.column.values.delta.DeltaBinaryPackingValuesWriterForInteger;
+import org.apache.parquet.column.values.delta.DeltaBinaryPackingValuesWriterForLong;
+import org.apache.parquet.column.values.rle.RunLengthBitPackingHybridEncoder;
+import org.apache.parquet.compression.CompressionCodecFactory.BytesInputCompressor;
+import org.apache.parquet.hadoop.ParquetFileWriter;
+import org.apache.parquet.hadoop.metadata.CompressionCodecName;
+import org.apache.parquet.schema.MessageType;
+import org.apache.parquet.schema.PrimitiveType;
+import org.apache.parquet.schema.PrimitiveType.PrimitiveTypeName;
+import org.apache.parquet.schema.Type;
+
+/**
+ * One Parquet file of a flat table written a page at a time from primitive arrays, for the two
+ * tables that grow with the sample count (amplitudes and field values).
+ *
+ * <p>Why not the record API: going through a record consumer costs several calls and checks per
+ * value plus a growing byte buffer per column and page, which made writing the field table take ten
+ * times longer than synthesising it. Here a caller fills plain arrays ({@link Page}); each full
+ * page is encoded in one loop per column, compressed, and kept until its row group is complete
+ * (a row group's column chunks must be contiguous in the file), then handed to
+ * {@link ParquetFileWriter}, which writes page headers, column and offset indexes and the footer.
+ *
+ * <p>Encodings (Parquet format specification, Encodings.md): INT32/INT64 columns
+ * DELTA_BINARY_PACKED (sample, point and mode numbers are runs and steps, which pack to almost
+ * nothing), FLOAT/DOUBLE columns BYTE_STREAM_SPLIT (Gaussian noise does not repeat; splitting the
+ * bytes lets the codec squeeze the exponent bytes). Every page carries min/max/null-count
+ * statistics, so readers can skip pages by sample number. Optional columns share one presence
+ * flag per row: a row's optional values are all present or all null (a point outside the cavity).
+ *
+ * <p>Memory: one page of arrays plus the compressed pages of one row group.
+ */
+final class ColumnBlockWriter implements Closeable {
+    /** Most rows per page: a float page is then 512 KiB, a double page 1 MiB (Parquet's usual page size). */
+    static final int MAX_PAGE_ROWS = 1 << 17;
+    /** Fewest rows per page, Parquet's own default row limit per page. */
+    static final int MIN_PAGE_ROWS = 20_000;
+
+    /**
+     * Page length for a table that grows by {@code rowsPerSample} rows per sample: one sample per
+     * page where that fits, so a reader fetching one sample decodes little else, but never pages
+     * so short that per-page costs (headers, codec set-up) dominate.
+     *
+     * @param rowsPerSample rows one sample adds
+     * @return rows per page
+     */
+    static int pageRows(long rowsPerSample) {
+        return (int) Math.max(MIN_PAGE_ROWS, Math.min(MAX_PAGE_ROWS, rowsPerSample));
+    }
+
+    /** Fills {@code count} rows of a page at array index {@code at}; {@code first} counts rows from the start of the append. */
+    @FunctionalInterface
+    interface Filler {
+        /**
+         * @param first index of the first row to fill, counted from the start of this append
+         * @param count rows to fill
+         * @param page the arrays to fill
+         * @param at array index of the first row
+         */
+        void fill(long first, int count, Page page, int at);
+    }
+
+    /** The arrays of the page being filled, one per column, indexed by schema position. */
+    static final class Page {
+        private final Object[] arrays;
+        private final boolean[] present;
+
+        Page(List<PrimitiveType> columns, boolean anyOptional, int rows) {
+            arrays = new Object[columns.size()];
+            for (int c = 0; c < arrays.length; c++) {
+                switch (columns.get(c).getPrimitiveTypeName()) {
+                    case INT64: arrays[c] = new long[rows]; break;
+                    case INT32: arrays[c] = new int[rows]; break;
+                    case FLOAT: arrays[c] = new float[rows]; break;
+                    case DOUBLE: arrays[c] = new double[rows]; break;
+                    default: throw new IllegalArgumentException("column type not supported by the block writer: " + columns.get(c));
+                }
+            }
+            present = anyOptional ? new boolean[rows] : null;
+        }
+
+        long[] int64(int column) {
+            return (long[]) arrays[column];
+        }
+
+        int[] int32(int column) {
+            return (int[]) arrays[column];
+        }
+
+        float[] float32(int column) {
+            return (float[]) arrays[column];
+        }
+
+        double[] float64(int column) {
+            return (double[]) arrays[column];
+        }
+
+        /** @return per row: true if the optional columns hold values, false if they are null; null if no column is optional */
+        boolean[] present() {
+            return present;
+        }
+    }
+
+    /** An encoded, compressed page waiting for its row group. */
+    private record EncodedPage(byte[] bytes, int uncompressedSize, int values, int rows, Statistics<?> stats,
+                               Encoding dlEncoding, Encoding valuesEncoding) {
+    }
+
+    private final HashingOutputFile file;
+    private final MessageType schema;
+    private final List<PrimitiveType> columns = new ArrayList<>();
+    private final List<ColumnDescriptor> descriptors;
+    private final boolean[] optional;
+    private final Map<String, String> metadata;
+    private final long rowGroupBytes;
+    private final CompressionCodecName codec;
+    private final BytesInputCompressor compressor;
+    private final ParquetFileWriter writer;
+    private final Page page;
+    private final int pageRows;
+    private final List<List<EncodedPage>> pending = new ArrayList<>();
+    private final DeltaBinaryPackingValuesWriterForInteger ints;
+    private final DeltaBinaryPackingValuesWriterForLong longs;
+    private final RunLengthBitPackingHybridEncoder levels;
+    private byte[] scratch;
+    private int fill;
+    private long groupRows;
+    private long groupBytes;
+    private long rows;
+    private boolean closed;
+
+    /**
+     * @param path file to create (must not exist)
+     * @param schema flat schema of INT32, INT64, FLOAT and DOUBLE columns
+     * @param metadata footer key-value metadata, written in this order
+     * @param rowGroupBytes target compressed size of a row group
+     * @param codec page compression
+     * @param pageRows rows per page, see {@link #pageRows(long)}
+     */
+    ColumnBlockWriter(Path path, MessageType schema, Map<String, String> metadata, long rowGroupBytes,
+                      CompressionCodecName codec, int pageRows) throws IOException {
+        if (pageRows < 1 || pageRows > MAX_PAGE_ROWS) {
+            throw new IllegalArgumentException("pageRows " + pageRows + " outside [1, " + MAX_PAGE_ROWS + "]");
+        }
+        this.pageRows = pageRows;
+        this.scratch = new byte[8 * pageRows];
+        this.schema = schema;
+        this.descriptors = schema.getColumns();
+        this.optional = new boolean[schema.getFieldCount()];
+        boolean anyOptional = false;
+        for (int c = 0; c < schema.getFieldCount(); c++) {
+            Type t = schema.getType(c);
+            columns.add(t.asPrimitiveType());
+            optional[c] = t.getRepetition() == Type.Repetition.OPTIONAL;
+            anyOptional |= optional[c];
+            pending.add(new ArrayList<>());
+        }
+        this.metadata = new java.util.LinkedHashMap<>(metadata);
+        this.rowGroupBytes = rowGroupBytes;
+        this.codec = codec;
+        this.page = new Page(columns, anyOptional, pageRows);
+        HeapByteBufferAllocator heap = HeapByteBufferAllocator.getInstance();
+        this.ints = new DeltaBinaryPackingValuesWriterForInteger(1 << 16, 4 * pageRows, heap);
+        this.longs = new DeltaBinaryPackingValuesWriterForLong(1 << 16, 8 * pageRows, heap);
+        this.levels = new RunLengthBitPackingHybridEncoder(1, 256, Math.max(256, pageRows / 8 + 64), heap);
+        this.compressor = new PureJavaCodecs().getCompressor(codec);
+        this.file = new HashingOutputFile(path);
+        this.writer = new ParquetFileWriter(file, schema, ParquetFileWriter.Mode.CREATE, rowGroupBytes, 0);
+        writer.start();
+    }
+
+    /**
+     * Appends rows; the filler is called once per page the rows touch, in row order.
+     *
+     * @param count rows to append
+     * @param filler writes the rows' values into the page arrays
+     */
+    void append(long count, Filler filler) throws IOException {
+        if (closed) {
+            throw new IllegalStateException("block writer is closed");
+        }
+        long done = 0;
+        while (done < count) {
+            int take = (int) Math.min(count - done, pageRows - fill);
+            filler.fill(done, take, page, fill);
+            fill += take;
+            done += take;
+            rows += take;
+            if (fill == pageRows) {
+                flushPage();
+            }
+        }
+    }
+
+    /** @return rows written so far */
+    long rows() {
+        return rows;
+    }
+
+    /** @return the file, for its length and hash after close */
+    HashingOutputFile file() {
+        return file;
+    }
+
+    private void flushPage() throws IOException {
+        if (fill == 0) {
+            return;
+        }
+        boolean[] present = page.present();
+        BytesInput dl = null;
+        int presentCount = fill;
+        if (present != null) {
+            presentCount = 0;
+            for (int r = 0; r < fill; r++) {
+                presentCount += present[r] ? 1 : 0;
+            }
+            dl = definitionLevels(present, presentCount);
+        }
+        for (int c = 0; c < columns.size(); c++) {
+            EncodedPage p = encode(c, optional[c] ? present : null, presentCount, optional[c] ? dl : null);
+            pending.get(c).add(p);
+            groupBytes += p.bytes.length;
+        }
+        groupRows += fill;
+        fill = 0;
+        if (groupBytes >= rowGroupBytes) {
+            flushRowGroup();
+        }
+    }
+
+    // RLE/bit-packed hybrid with bit width 1, prefixed by its 4-byte length (data page v1).
+    private BytesInput definitionLevels(boolean[] present, int presentCount) throws IOException {
+        byte[] body;
+        if (presentCount == fill) {
+            // One RLE run of 1s: header varint (count << 1), then the value in one byte.
+            BytesInput run = BytesInput.concat(BytesInput.fromUnsignedVarInt(fill << 1), BytesInput.from(new byte[] {1}));
+            body = run.toByteArray();
+        } else {
+            levels.reset();
+            for (int r = 0; r < fill; r++) {
+                levels.writeInt(present[r] ? 1 : 0);
+            }
+            body = levels.toBytes().toByteArray();
+        }
+        return BytesInput.concat(BytesInput.fromInt(body.length), BytesInput.from(body));
+    }
+
+    private EncodedPage encode(int c, boolean[] present, int valueCount, BytesInput dl) throws IOException {
+        PrimitiveType type = columns.get(c);
+        Statistics<?> stats = Statistics.createStats(type);
+        stats.incrementNumNulls(fill - valueCount);
+        BytesInput values;
+        Encoding enc;
+        switch (type.getPrimitiveTypeName()) {
+            case INT64: {
+                long[] v = page.int64(c);
+                longs.reset();
+                long min = Long.MAX_VALUE;
+                long max = Long.MIN_VALUE;
+                for (int r = 0; r < fill; r++) {
+                    if (present == null || present[r]) {
+                        longs.writeLong(v[r]);
+                        min = Math.min(min, v[r]);
+                        max = Math.max(max, v[r]);
+                    }
+                }
+                if (valueCount > 0) {
+                    stats.updateStats(min);
+                    stats.updateStats(max);
+                }
+                values = BytesInput.copy(longs.getBytes());
+                enc = Encoding.DELTA_BINARY_PACKED;
+                break;
+            }
+            case INT32: {
+                int[] v = page.int32(c);
+                ints.reset();
+                int min = Integer.MAX_VALUE;
+                int max = Integer.MIN_VALUE;
+                for (int r = 0; r < fill; r++) {
+                    if (present == null || present[r]) {
+                        ints.writeInteger(v[r]);
+                        min = Math.min(min, v[r]);
+                        max = Math.max(max, v[r]);
+                    }
+                }
+                if (valueCount > 0) {
+                    stats.updateStats(min);
+                    stats.updateStats(max);
+                }
+                values = BytesInput.copy(ints.getBytes());
+                enc = Encoding.DELTA_BINARY_PACKED;
+                break;
+            }
+            case FLOAT: {
+                values = splitFloats(page.float32(c), present, valueCount, stats);
+                enc = Encoding.BYTE_STREAM_SPLIT;
+                break;
+            }
+            case DOUBLE: {
+                values = splitDoubles(page.float64(c), present, valueCount, stats);
+                enc = Encoding.BYTE_STREAM_SPLIT;
+                break;
+            }
+            default:
+                throw new IllegalStateException("unsupported column " + type);
+        }
+        BytesInput body = dl == null ? values : BytesInput.concat(dl, values);
+        long raw = body.size();
+        byte[] compressed = compressor.compress(body).toByteArray();
+        boolean hasLevels = optional[c];
+        return new EncodedPage(compressed, Math.toIntExact(raw), fill, fill, stats,
+            hasLevels ? Encoding.RLE : Encoding.BIT_PACKED, enc);
+    }
+
+    // BYTE_STREAM_SPLIT: byte k of the i-th present value goes to scratch[k * n + i].
+    private BytesInput splitFloats(float[] v, boolean[] present, int n, Statistics<?> stats) {
+        float min = Float.POSITIVE_INFINITY;
+        float max = Float.NEGATIVE_INFINITY;
+        int i = 0;
+        for (int r = 0; r < fill; r++) {
+            if (present == null || present[r]) {
+                float x = v[r];
+                int bits = Float.floatToRawIntBits(x);
+                scratch[i] = (byte) bits;
+                scratch[n + i] = (byte) (bits >>> 8);
+                scratch[2 * n + i] = (byte) (bits >>> 16);
+                scratch[3 * n + i] = (byte) (bits >>> 24);
+                min = Math.min(min, x);
+                max = Math.max(max, x);
+                i++;
+            }
+        }
+        if (n > 0) {
+            stats.updateStats(min);
+            stats.updateStats(max);
+        }
+        return BytesInput.from(java.util.Arrays.copyOf(scratch, 4 * n));
+    }
+
+    private BytesInput splitDoubles(double[] v, boolean[] present, int n, Statistics<?> stats) {
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        int i = 0;
+        for (int r = 0; r < fill; r++) {
+            if (present == null || present[r]) {
+                double x = v[r];
+                long bits = Double.doubleToRawLongBits(x);
+                for (int k = 0; k < 8; k++) {
+                    scratch[k * n + i] = (byte) (bits >>> (8 * k));
+                }
+                min = Math.min(min, x);
+                max = Math.max(max, x);
+                i++;
+            }
+        }
+        if (n > 0) {
+            stats.updateStats(min);
+            stats.updateStats(max);
+        }
+        return BytesInput.from(java.util.Arrays.copyOf(scratch, 8 * n));
+    }
+
+    private void flushRowGroup() throws IOException {
+        if (groupRows == 0) {
+            return;
+        }
+        writer.startBlock(groupRows);
+        for (int c = 0; c < columns.size(); c++) {
+            List<EncodedPage> pages = pending.get(c);
+            long values = 0;
+            for (EncodedPage p : pages) {
+                values += p.values;
+            }
+            writer.startColumn(descriptors.get(c), values, codec);
+            for (EncodedPage p : pages) {
+                writer.writeDataPage(p.values, p.uncompressedSize, BytesInput.from(p.bytes), p.stats, p.rows,
+                    Encoding.BIT_PACKED, p.dlEncoding, p.valuesEncoding);
+            }
+            writer.endColumn();
+            pages.clear();
+        }
+        writer.endBlock();
+        groupRows = 0;
+        groupBytes = 0;
+    }
+
+    @Override
+    public void close() throws IOException {
+        if (closed) {
+            return;
+        }
+        closed = true;
+        try {
+            flushPage();
+            flushRowGroup();
+            writer.end(metadata);
+        } catch (IOException | RuntimeException ex) {
+            try {
+                writer.close();
+            } catch (IOException | RuntimeException suppressed) {
+                ex.addSuppressed(suppressed);
+            }
+            throw ex;
+        } finally {
+            scratch = null;
+        }
+    }
+
+    /** @return the schema written */
+    MessageType schema() {
+        return schema;
+    }
+
+    static boolean supports(MessageType schema) {
+        for (Type t : schema.getFields()) {
+            PrimitiveTypeName p = t.asPrimitiveType().getPrimitiveTypeName();
+            if (p != PrimitiveTypeName.INT32 && p != PrimitiveTypeName.INT64 && p != PrimitiveTypeName.FLOAT
+                && p != PrimitiveTypeName.DOUBLE) {
+                return false;
+            }
+        }
+        return true;
+    }
+}
