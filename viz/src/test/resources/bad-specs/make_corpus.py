@@ -110,6 +110,8 @@ case("evaluate-lines-not-list", "evaluate.lines", sub(r"^  lines:\n(    .*\n)+",
 # output
 case("precision-unknown", "output.precision", sub(r"^  precision: float64.*", "  precision: float16"))
 case("precision-typo", "output.precision", sub(r"^  precision: float64.*", "  precision: flaot32"))
+case("compression-unknown", "output.compression", sub(r"^  precision: float64.*", "  precision: float64\n  compression: lz4"))
+case("compression-number", "output.compression", sub(r"^  precision: float64.*", "  precision: float64\n  compression: 3"))
 case("output-unknown-key", "output.format", sub(r"^  precision: float64.*", "  precision: float64\n  format: csv"))
 case("output-folder-number", "output.folder", sub(r"^  folder: .*", "  folder: 42"))
 # analysis

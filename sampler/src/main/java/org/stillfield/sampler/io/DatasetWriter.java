@@ -23,6 +23,7 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import java.util.concurrent.atomic.AtomicLong;
+import org.apache.parquet.hadoop.metadata.CompressionCodecName;
 import org.stillfield.sampler.api.EnsembleSink;
 import org.stillfield.sampler.api.Field;
 import org.stillfield.sampler.api.Mode;
@@ -257,6 +258,7 @@ public final class DatasetWriter implements EnsembleSink {
     private long partFirst;
     private long partEnd;
     private long nextSample = -1;
+    private final CompressionCodecName codec;
     private ColumnBlockWriter amplitudes;
     private ColumnBlockWriter fieldValues;
     private Path amplitudesTemp;
@@ -444,6 +446,7 @@ public final class DatasetWriter implements EnsembleSink {
             inside[p] = table.cavity().contains(points.get(p));
         }
         this.float32 = spec.precision() == RunSpec.Precision.FLOAT32;
+        this.codec = codec(spec.storage().compression());
         this.pendingParts = plan.pendingParts;
         Map<String, String> c = Layout.commonFooter(spec, table.cavity(), table.window(), table.state());
         c.put(Layout.KEY_RUN_KEY, plan.runKey);
@@ -528,7 +531,7 @@ public final class DatasetWriter implements EnsembleSink {
         ArrayNode f = m.putArray("fields");
         fields.forEach(x -> f.add(x.name()));
         m.put("precision", spec.precision().name().toLowerCase(Locale.ROOT));
-        m.put("compression", RowWriter.CODEC.name());
+        m.put("compression", codec.name());
         return m;
     }
 
@@ -557,7 +560,7 @@ public final class DatasetWriter implements EnsembleSink {
         Path dest = target.resolve(name);
         Path tmp = temp(dest);
         Layout.Table t = name.equals(Layout.MODES) ? Layout.modes() : Layout.points();
-        try (RowWriter w = new RowWriter(tmp, t.schema(), Layout.footer(common, t), ROW_GROUP_BYTES)) {
+        try (RowWriter w = new RowWriter(tmp, t.schema(), Layout.footer(common, t), ROW_GROUP_BYTES, codec)) {
             body.write(w);
         } catch (IOException | RuntimeException ex) {
             Files.deleteIfExists(tmp);
@@ -788,9 +791,9 @@ public final class DatasetWriter implements EnsembleSink {
         fieldsTemp = temp(target.resolve(Layout.part(Layout.FIELDS, k)));
         Layout.Table at = Layout.amplitudes();
         Layout.Table ft = Layout.fields(spec.fields(), spec.precision());
-        amplitudes = new ColumnBlockWriter(amplitudesTemp, at.schema(), Layout.footer(footer, at), ROW_GROUP_BYTES, RowWriter.CODEC,
+        amplitudes = new ColumnBlockWriter(amplitudesTemp, at.schema(), Layout.footer(footer, at), ROW_GROUP_BYTES, codec,
             ColumnBlockWriter.pageRows(modeCount));
-        fieldValues = new ColumnBlockWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES, RowWriter.CODEC,
+        fieldValues = new ColumnBlockWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES, codec,
             ColumnBlockWriter.pageRows(pointCount));
     }
 
@@ -1151,6 +1154,15 @@ public final class DatasetWriter implements EnsembleSink {
     private void requireOpen() {
         if (state != State.OPEN) {
             throw new IllegalStateException("dataset writer for " + target + " is " + state.name().toLowerCase(Locale.ROOT));
+        }
+    }
+
+    static CompressionCodecName codec(RunSpec.Compression c) {
+        switch (c) {
+            case ZSTD: return CompressionCodecName.ZSTD;
+            case SNAPPY: return CompressionCodecName.SNAPPY;
+            case NONE: return CompressionCodecName.UNCOMPRESSED;
+            default: throw new IllegalArgumentException("compression " + c);
         }
     }
 

@@ -28,7 +28,7 @@ import org.apache.parquet.schema.Type;
  * to one sample's pages.
  */
 final class RowWriter implements Closeable {
-    /** Page compression of every dataset file. */
+    /** Page compression unless the spec chooses another. */
     static final CompressionCodecName CODEC = CompressionCodecName.ZSTD;
 
     private final HashingOutputFile file;
@@ -46,12 +46,24 @@ final class RowWriter implements Closeable {
      * @param rowGroupBytes target row-group size, bytes
      */
     RowWriter(Path path, MessageType schema, Map<String, String> metadata, long rowGroupBytes) throws IOException {
+        this(path, schema, metadata, rowGroupBytes, CODEC);
+    }
+
+    /**
+     * @param path file to create (must not exist)
+     * @param schema flat schema
+     * @param metadata footer key-value metadata
+     * @param rowGroupBytes target row-group size, bytes
+     * @param codec page compression
+     */
+    RowWriter(Path path, MessageType schema, Map<String, String> metadata, long rowGroupBytes,
+              CompressionCodecName codec) throws IOException {
         this.file = new HashingOutputFile(path);
         this.schema = schema;
         Builder b = new Builder(this, metadata)
             .withConf(new PlainParquetConfiguration())
             .withCodecFactory(new PureJavaCodecs())
-            .withCompressionCodec(CODEC)
+            .withCompressionCodec(codec)
             .withWriteMode(ParquetFileWriter.Mode.CREATE)
             .withWriterVersion(ParquetProperties.WriterVersion.PARQUET_1_0)
             .withRowGroupSize(rowGroupBytes)

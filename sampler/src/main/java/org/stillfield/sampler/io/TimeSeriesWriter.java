@@ -281,7 +281,7 @@ public final class TimeSeriesWriter implements TimeSeriesSink {
 
     private RowWriter open(String name, Layout.Table table, Map<String, String> common) throws IOException {
         RowWriter w = new RowWriter(staging.resolve(name), table.schema(), Layout.footer(common, table),
-            ROW_GROUP_BYTES);
+            ROW_GROUP_BYTES, DatasetWriter.codec(spec.storage().compression()));
         writers.put(name, w);
         return w;
     }
@@ -626,7 +626,7 @@ public final class TimeSeriesWriter implements TimeSeriesSink {
         probeNames.forEach(p::add);
         m.put("amplitudes", amplitudes);
         m.put("row_order", sorted ? "sample, step" : "by block: one sample's rows in step order, samples interleaved");
-        m.put("compression", RowWriter.CODEC.name());
+        m.put("compression", DatasetWriter.codec(spec.storage().compression()).name());
         ArrayNode files = m.putArray("files");
         for (Map.Entry<String, RowWriter> e : writers.entrySet()) {
             ObjectNode o = files.addObject();

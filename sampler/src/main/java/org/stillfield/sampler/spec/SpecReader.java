@@ -104,11 +104,13 @@ public final class SpecReader {
         timeSeries(root, cavity, samples); // validated now so bad input fails early; see timeSeries(RunSpec)
 
         SpecNode out = root.child("output");
-        out.rejectUnknown(List.of("folder", "precision", "part_samples", "shard"));
+        out.rejectUnknown(List.of("folder", "precision", "compression", "part_samples", "shard"));
         String folder = out.string("folder", "out/" + name);
         Path outputFolder = baseFolder.resolve(folder).normalize();
         RunSpec.Precision precision = RunSpec.Precision.valueOf(
             out.choice("precision", "float64", List.of("float64", "float32")).toUpperCase(Locale.ROOT));
+        RunSpec.Compression compression = RunSpec.Compression.valueOf(
+            out.choice("compression", "zstd", List.of("zstd", "snappy", "none")).toUpperCase(Locale.ROOT));
         long partSamples = out.integer("part_samples", 0, 1, 1_000_000_000L);
         Shard shard = Shard.ALL;
         if (out.has("shard")) {
@@ -141,7 +143,8 @@ public final class SpecReader {
         int nThreads = threads == 0 ? Runtime.getRuntime().availableProcessors() : (int) threads;
 
         return new RunSpec(name, cavity, state, fields, window, samples, seed, sets, outputFolder, precision, pairs,
-            falseAlarm, maxModes, nThreads, text, new RunSpec.Storage(partSamples, shard, maxOutputGB, maxMemoryGB));
+            falseAlarm, maxModes, nThreads, text, new RunSpec.Storage(partSamples, shard, maxOutputGB, maxMemoryGB,
+                compression));
     }
 
     /** A size limit in GB (10⁹ bytes): positive and finite when given; +∞ when absent. */

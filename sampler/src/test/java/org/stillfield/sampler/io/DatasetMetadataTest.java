@@ -201,4 +201,30 @@ class DatasetMetadataTest {
             }
         }
     }
+
+    @Test
+    void theSpecsCompressionIsUsedForEveryFileAndTheDataAreTheSame() throws Exception {
+        RunSpec zstd = TestRuns.spec(dir.resolve("z"));
+        TestRuns.Recorder reference = TestRuns.write(zstd);
+        for (String name : List.of("snappy", "none")) {
+            RunSpec spec = TestRuns.spec(dir.resolve(name), TestRuns.yaml("float64", 12345, 50)
+                .replace("precision: float64}", "precision: float64, compression: " + name + "}"));
+            assertEquals(name, spec.storage().compression().name().toLowerCase(java.util.Locale.ROOT));
+            TestRuns.write(spec);
+            CompressionCodecName want = name.equals("none") ? CompressionCodecName.UNCOMPRESSED : CompressionCodecName.SNAPPY;
+            for (String file : List.of(TestRuns.AMPLITUDES0, TestRuns.FIELDS0, Layout.MODES, Layout.POINTS)) {
+                try (ParquetFileReader r = open(spec.outputFolder().resolve(file))) {
+                    for (ColumnChunkMetaData c : r.getRowGroups().get(0).getColumns()) {
+                        assertEquals(want, c.getCodec(), name + ": " + file + " " + c.getPath());
+                    }
+                }
+            }
+            TestRuns.Recorder read = TestRuns.replay(Dataset.open(spec.outputFolder()), 9);
+            for (int s = 0; s < 50; s++) {
+                org.junit.jupiter.api.Assertions.assertArrayEquals(reference.q.get(s), read.q.get(s), 0.0, name + " q " + s);
+                org.junit.jupiter.api.Assertions.assertArrayEquals(reference.values.get(org.stillfield.sampler.api.Field.B).get(s),
+                    read.values.get(org.stillfield.sampler.api.Field.B).get(s), 0.0, name + " B " + s);
+            }
+        }
+    }
 }
