@@ -8,6 +8,7 @@ Same cases as SynthesisBench.java:
   points  1 x 1.3 x 1.7 m box, k <= 64.5 rad/m (about 2e4 modes), E at 1000 points, as one
           BLAS matrix product U (3P x M) @ amplitudes (M x S).
 Usage: python3 numpy_reference.py CASE SAMPLES REPEATS   (prints median samples/s)
+       REPEATS = 0 runs the job once, untimed, for timing the whole process from outside.
 """
 import sys, time
 import numpy as np
@@ -100,6 +101,9 @@ def main():
     repeats = int(sys.argv[3]) if len(sys.argv) > 3 else 5
     fn = {"grid64": grid64, "grid64-io": grid64_io, "points": points}[case]
     rng = np.random.default_rng(1)
+    if repeats == 0:
+        fn(samples, rng)
+        return
     rates = []
     for r in range(repeats + 1):
         t0 = time.perf_counter()

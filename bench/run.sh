@@ -1,11 +1,11 @@
 #!/usr/bin/env bash
 # Speed benchmarks: Stillfield's synthesis against straightforward NumPy implementations of the same
 # jobs, on this machine in the same run; prints medians and the ratio (Stillfield / NumPy).
-# Usage: bench/run.sh [SAMPLES_GRID] [SAMPLES_POINTS] [REPEATS]
+# Usage: bench/run.sh [SAMPLES_GRID] [SAMPLES_POINTS] [REPEATS] [SAMPLES_END_TO_END]
 set -euo pipefail
 here="$(cd "$(dirname "$0")" && pwd)"
 root="$here/.."
-sg=${1:-20}; sp=${2:-200}; rep=${3:-5}
+sg=${1:-20}; sp=${2:-200}; rep=${3:-5}; se=${4:-200}
 (cd "$root" && mvn -q -B package -DskipTests)
 jar="$root/viz/target/stillfield.jar"
 classes="$(mktemp -d)"
@@ -20,13 +20,20 @@ for case in grid64:$sg points:$sp; do
   ratio "$name" "$(echo "$j" | rate)" "$(echo "$p" | rate)"
 done
 
-# (b) end to end: Stillfield's own command writing a float32 dataset, against NumPy writing .npy.
+# (b) end to end, both timed from outside as whole processes (interpreter or JVM start, mode set-up
+# and all writes included): Stillfield's own command writing a float32 dataset with Snappy pages,
+# against NumPy writing one raw float32 .npy; medians over REPEATS runs of each.
 tmp_out="$(mktemp -d)"
-t0=$(date +%s.%N)
-java -jar "$jar" sample "$here/grid64.yaml" --samples "$sg" --output "$tmp_out/ds" > /dev/null
-t1=$(date +%s.%N)
-jrate=$(python3 -c "print($sg/($t1-$t0))")
-echo "java grid64-io (whole command, JVM start included) samples=$sg median_samples_per_s=$jrate"
-rm -rf "$tmp_out"
-p=$(python3 "$here/numpy_reference.py" grid64-io "$sg" 1); echo "$p"
-ratio grid64-io "$jrate" "$(echo "$p" | rate)"
+wall() { local t0 t1; t0=$(date +%s.%N); "$@" > /dev/null; t1=$(date +%s.%N); python3 -c "print($se/($t1-$t0))"; }
+median() { python3 -c "import statistics, sys; print(statistics.median(map(float, sys.argv[1:])))" "$@"; }
+jr=(); pr=()
+for r in $(seq "$rep"); do
+  rm -rf "$tmp_out/ds"
+  jr+=("$(wall java -jar "$jar" sample "$here/grid64.yaml" --samples "$se" --output "$tmp_out/ds")")
+  pr+=("$(wall python3 "$here/numpy_reference.py" grid64-io "$se" 0)")
+done
+rm -rf "$tmp_out" /tmp/stillfield-bench-grid64.npy
+jrate=$(median "${jr[@]}"); prate=$(median "${pr[@]}")
+echo "java grid64-io (whole process) samples=$se runs=$rep median_samples_per_s=$jrate"
+echo "numpy grid64-io (whole process) samples=$se runs=$rep median_samples_per_s=$prate"
+ratio grid64-io "$jrate" "$prate"
