@@ -325,29 +325,44 @@ final class ColumnBlockWriter implements Closeable {
             hasLevels ? Encoding.RLE : Encoding.BIT_PACKED, enc);
     }
 
-    // BYTE_STREAM_SPLIT: byte k of the i-th present value goes to scratch[k * n + i].
+    // BYTE_STREAM_SPLIT: byte k of the i-th present value goes to scratch[k * n + i]. Present
+    // values are finite (the synthesiser checks), so plain comparisons give min and max.
     private BytesInput splitFloats(float[] v, boolean[] present, int n, Statistics<?> stats) {
         float min = Float.POSITIVE_INFINITY;
         float max = Float.NEGATIVE_INFINITY;
-        int i = 0;
-        for (int r = 0; r < fill; r++) {
-            if (present == null || present[r]) {
+        byte[] out = scratch;
+        if (n == fill) {
+            for (int r = 0; r < n; r++) {
                 float x = v[r];
                 int bits = Float.floatToRawIntBits(x);
-                scratch[i] = (byte) bits;
-                scratch[n + i] = (byte) (bits >>> 8);
-                scratch[2 * n + i] = (byte) (bits >>> 16);
-                scratch[3 * n + i] = (byte) (bits >>> 24);
-                min = Math.min(min, x);
-                max = Math.max(max, x);
-                i++;
+                out[r] = (byte) bits;
+                out[n + r] = (byte) (bits >>> 8);
+                out[2 * n + r] = (byte) (bits >>> 16);
+                out[3 * n + r] = (byte) (bits >>> 24);
+                min = x < min ? x : min;
+                max = x > max ? x : max;
+            }
+        } else {
+            int i = 0;
+            for (int r = 0; r < fill; r++) {
+                if (present[r]) {
+                    float x = v[r];
+                    int bits = Float.floatToRawIntBits(x);
+                    out[i] = (byte) bits;
+                    out[n + i] = (byte) (bits >>> 8);
+                    out[2 * n + i] = (byte) (bits >>> 16);
+                    out[3 * n + i] = (byte) (bits >>> 24);
+                    min = x < min ? x : min;
+                    max = x > max ? x : max;
+                    i++;
+                }
             }
         }
         if (n > 0) {
             stats.updateStats(min);
             stats.updateStats(max);
         }
-        return BytesInput.from(java.util.Arrays.copyOf(scratch, 4 * n));
+        return BytesInput.from(out, 0, 4 * n);
     }
 
     private BytesInput splitDoubles(double[] v, boolean[] present, int n, Statistics<?> stats) {
@@ -361,8 +376,8 @@ final class ColumnBlockWriter implements Closeable {
                 for (int k = 0; k < 8; k++) {
                     scratch[k * n + i] = (byte) (bits >>> (8 * k));
                 }
-                min = Math.min(min, x);
-                max = Math.max(max, x);
+                min = x < min ? x : min;
+                max = x > max ? x : max;
                 i++;
             }
         }
@@ -370,7 +385,7 @@ final class ColumnBlockWriter implements Closeable {
             stats.updateStats(min);
             stats.updateStats(max);
         }
-        return BytesInput.from(java.util.Arrays.copyOf(scratch, 8 * n));
+        return BytesInput.from(scratch, 0, 8 * n);
     }
 
     private void flushRowGroup() throws IOException {
