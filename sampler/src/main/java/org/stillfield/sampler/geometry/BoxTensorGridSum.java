@@ -28,13 +28,18 @@ final class BoxTensorGridSum implements TensorGridSum {
     private final int[] cell;
     private final double[] ue;
     private final double[] hk;
-    // sin/cos tables [grid index][mode index along the axis]
-    private final double[][] sx;
-    private final double[][] cx;
-    private final double[][] sy;
-    private final double[][] cy;
-    private final double[][] sz;
-    private final double[][] cz;
+    // sin/cos tables, row per mode index along the axis: t[l * points + i]
+    private final double[] sx;
+    private final double[] cx;
+    private final double[] sy;
+    private final double[] cy;
+    private final double[] sz;
+    private final double[] cz;
+    // Axes whose grid is mirror-symmetric about the cavity centre, and ⌈n/2⌉ along y
+    private final boolean fx;
+    private final boolean fy;
+    private final boolean fz;
+    private final int hy;
 
     BoxTensorGridSum(double a, double b, double d, List<Mode> modes, double[] xs, double[] ys, double[] zs) {
         nModes = modes.size();
@@ -70,15 +75,36 @@ final class BoxTensorGridSum implements TensorGridSum {
         cy = table(ys, nm, Math.PI / b, false);
         sz = table(zs, nn, Math.PI / d, true);
         cz = table(zs, nn, Math.PI / d, false);
+        fx = mirrored(xs, a, nl);
+        fy = mirrored(ys, b, nm);
+        fz = mirrored(zs, d, nn);
+        hy = fy ? (ny + 1) / 2 : ny;
     }
 
-    /** Table transposed for axpy loops: t[l][i] = sin or cos(l·step·coords[i]). */
-    private static double[][] table(double[] coords, int n, double step, boolean sine) {
-        double[][] t = new double[n][coords.length];
+    /**
+     * Whether x_i + x_{n-1-i} = a for all i, so that sin and cos of lπ(a − x)/a are ±sin, ±cos of
+     * lπx/a. A mismatch δ shifts the phase of index l by lπδ/a: allow 1e-13 of phase at the top
+     * index, but never less than the few ulps a computed grid carries.
+     */
+    private static boolean mirrored(double[] coords, double a, int modes) {
+        double tol = Math.max(4 * Math.ulp(a), 1e-13 * a / (Math.PI * Math.max(1, modes - 1)));
+        int n = coords.length;
+        for (int i = 0; i < n; i++) {
+            if (!(Math.abs(coords[i] + coords[n - 1 - i] - a) <= tol)) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /** t[l * coords.length + i] = sin or cos(l·step·coords[i]). */
+    private static double[] table(double[] coords, int n, double step, boolean sine) {
+        int len = coords.length;
+        double[] t = new double[n * len];
         for (int l = 0; l < n; l++) {
-            for (int i = 0; i < coords.length; i++) {
+            for (int i = 0; i < len; i++) {
                 double th = l * step * coords[i];
-                t[l][i] = sine ? Math.sin(th) : Math.cos(th);
+                t[l * len + i] = sine ? Math.sin(th) : Math.cos(th);
             }
         }
         return t;
@@ -91,6 +117,7 @@ final class BoxTensorGridSum implements TensorGridSum {
         double[] t1 = new double[nl * nm * nz];
         double[] t2 = new double[nl * ny * nz];
         double[] row = new double[nx];
+        Terms terms = new Terms(Math.max(nl, Math.max(nm, nn)), Math.max(nx, Math.max(ny, nz)));
         for (int comp = 0; comp < 3; comp++) {
             java.util.Arrays.fill(c, 0.0);
             for (int q = 0; q < nModes; q++) {
@@ -100,56 +127,159 @@ final class BoxTensorGridSum implements TensorGridSum {
             boolean xCos = curl ? comp != 0 : comp == 0;
             boolean yCos = curl ? comp != 1 : comp == 1;
             boolean zCos = curl ? comp != 2 : comp == 2;
-            contract(c, xCos ? cx : sx, yCos ? cy : sy, zCos ? cz : sz, t1, t2, row, out, offset, comp);
+            contract(c, xCos, yCos, zCos, t1, t2, row, terms, out, offset, comp);
         }
     }
 
-    // Each step is a sequence of axpy updates over a contiguous output run (which the JIT
-    // vectorises), instead of strided dot products.
-    private void contract(double[] c, double[][] tx, double[][] ty, double[][] tz, double[] t1, double[] t2,
-                          double[] row, double[] out, int offset, int comp) {
+    /**
+     * One contraction's term list for one output index: weights and source offsets, even mode
+     * indices in [0, split) and odd ones in [split, count), plus two scratch rows for the halves.
+     */
+    private static final class Terms {
+        final double[] w;
+        final int[] off;
+        final double[] even;
+        final double[] odd;
+        int split;
+        int count;
+
+        Terms(int modes, int len) {
+            w = new double[modes];
+            off = new int[modes];
+            even = new double[len];
+            odd = new double[len];
+        }
+
+        void clear() {
+            count = 0;
+        }
+
+        // Called with all even indices first, then all odd ones; mark() in between.
+        void add(double weight, int offset) {
+            w[count] = weight;
+            off[count] = offset;
+            count++;
+        }
+
+        void mark() {
+            split = count;
+        }
+    }
+
+    private void contract(double[] c, boolean xCos, boolean yCos, boolean zCos, double[] t1, double[] t2,
+                          double[] row, Terms tm, double[] out, int offset, int comp) {
+        double[] tx = xCos ? cx : sx;
+        double[] ty = yCos ? cy : sy;
+        double[] tz = zCos ? cz : sz;
         // T1[l][m][k] = Σ_n c[l][m][n] Z[n][k]; (l, m) rows with no mode (outside the cutoff
-        // sphere) stay zero and are skipped in the next step.
-        java.util.Arrays.fill(t1, 0.0);
+        // sphere) are marked dead and skipped in the next step.
         boolean[] live = new boolean[nl * nm];
         for (int lm = 0; lm < nl * nm; lm++) {
-            int dst = lm * nz;
-            for (int n = 0; n < nn; n++) {
-                double w = c[lm * nn + n];
-                if (w != 0.0) {
-                    axpy(w, tz[n], 0, t1, dst, nz);
-                    live[lm] = true;
+            tm.clear();
+            for (int parity = 0; parity < 2; parity++) {
+                for (int n = parity; n < nn; n += 2) {
+                    double w = c[lm * nn + n];
+                    if (w != 0.0) {
+                        tm.add(w, n * nz);
+                    }
                 }
+                if (parity == 0) {
+                    tm.mark();
+                }
+            }
+            if (tm.count > 0) {
+                live[lm] = true;
+                expand(tm, tz, fz, zCos, t1, lm * nz, nz);
             }
         }
         // T2[l][j][k] = Σ_m Y[m][j] T1[l][m][k]
-        java.util.Arrays.fill(t2, 0.0);
         for (int l = 0; l < nl; l++) {
-            for (int j = 0; j < ny; j++) {
-                int dst = (l * ny + j) * nz;
-                for (int m = 0; m < nm; m++) {
-                    double w = ty[m][j];
-                    if (w != 0.0 && live[l * nm + m]) {
-                        axpy(w, t1, (l * nm + m) * nz, t2, dst, nz);
+            for (int j = 0; j < hy; j++) {
+                tm.clear();
+                for (int parity = 0; parity < 2; parity++) {
+                    for (int m = parity; m < nm; m += 2) {
+                        double w = ty[m * ny + j];
+                        if (w != 0.0 && live[l * nm + m]) {
+                            tm.add(w, (l * nm + m) * nz);
+                        }
                     }
+                    if (parity == 0) {
+                        tm.mark();
+                    }
+                }
+                int dst = (l * ny + j) * nz;
+                int mirror = (l * ny + ny - 1 - j) * nz;
+                if (!fy || mirror == dst) {
+                    combine(t1, tm, 0, tm.count, t2, dst, nz);
+                } else {
+                    combine(t1, tm, 0, tm.split, t2, dst, nz);
+                    combine(t1, tm, tm.split, tm.count, t2, mirror, nz);
+                    butterfly(t2, dst, t2, mirror, nz, yCos ? 1.0 : -1.0);
                 }
             }
         }
         // F[k][j][i] = Σ_l T2[l][j][k] X[l][i], x fastest, scattered into the interleaved output.
         for (int k = 0; k < nz; k++) {
             for (int j = 0; j < ny; j++) {
-                java.util.Arrays.fill(row, 0.0);
-                for (int l = 0; l < nl; l++) {
-                    double w = t2[(l * ny + j) * nz + k];
-                    if (w != 0.0) {
-                        axpy(w, tx[l], 0, row, 0, nx);
+                tm.clear();
+                for (int parity = 0; parity < 2; parity++) {
+                    for (int l = parity; l < nl; l += 2) {
+                        double w = t2[(l * ny + j) * nz + k];
+                        if (w != 0.0) {
+                            tm.add(w, l * nx);
+                        }
+                    }
+                    if (parity == 0) {
+                        tm.mark();
                     }
                 }
+                expand(tm, tx, fx, xCos, row, 0, nx);
                 int base = offset + 3 * nx * (j + ny * k) + comp;
                 for (int i = 0; i < nx; i++) {
                     out[base + 3 * i] = row[i];
                 }
             }
+        }
+    }
+
+    /**
+     * dst[d, d+len) = Σ_t w_t·table[off_t + i] along an axis of len points: directly, or on a
+     * mirror-symmetric axis as even and odd halves over the first ⌈len/2⌉ points, unfolded by parity.
+     */
+    private static void expand(Terms tm, double[] table, boolean folded, boolean cosine, double[] dst, int d, int len) {
+        if (!folded) {
+            combine(table, tm, 0, tm.count, dst, d, len);
+            return;
+        }
+        int half = (len + 1) / 2;
+        combine(table, tm, 0, tm.split, tm.even, 0, half);
+        combine(table, tm, tm.split, tm.count, tm.odd, 0, half);
+        double s = cosine ? 1.0 : -1.0;
+        double[] e = tm.even;
+        double[] o = tm.odd;
+        for (int i = 0; i < half; i++) {
+            dst[d + i] = e[i] + o[i];
+        }
+        for (int i = 0; i < len / 2; i++) {
+            dst[d + len - 1 - i] = s * (e[i] - o[i]);
+        }
+    }
+
+    /** (a, b) ← (a + b, s·(a − b)) elementwise: even and odd halves to a point and its mirror. */
+    private static void butterfly(double[] x, int a, double[] y, int b, int len, double s) {
+        for (int i = 0; i < len; i++) {
+            double e = x[a + i];
+            double o = y[b + i];
+            x[a + i] = e + o;
+            y[b + i] = s * (e - o);
+        }
+    }
+
+    /** dst[d, d+len) = Σ_{t in [from, to)} w_t·src[off_t, off_t+len). */
+    private static void combine(double[] src, Terms tm, int from, int to, double[] dst, int d, int len) {
+        java.util.Arrays.fill(dst, d, d + len, 0.0);
+        for (int t = from; t < to; t++) {
+            axpy(tm.w[t], src, tm.off[t], dst, d, len);
         }
     }
 
