@@ -275,17 +275,71 @@ final class BoxTensorGridSum implements TensorGridSum {
         }
     }
 
-    /** dst[d, d+len) = Σ_{t in [from, to)} w_t·src[off_t, off_t+len). */
+    /**
+     * dst[d, d+len) = Σ_{t in [from, to)} w_t·src[off_t, off_t+len), four source rows per pass so
+     * the destination is loaded and stored once per four multiply-adds.
+     */
     private static void combine(double[] src, Terms tm, int from, int to, double[] dst, int d, int len) {
-        java.util.Arrays.fill(dst, d, d + len, 0.0);
-        for (int t = from; t < to; t++) {
-            axpy(tm.w[t], src, tm.off[t], dst, d, len);
+        double[] w = tm.w;
+        int[] off = tm.off;
+        int t = from;
+        switch ((to - from) & 3) {
+            case 1 -> {
+                set1(w[t], src, off[t], dst, d, len);
+                t += 1;
+            }
+            case 2 -> {
+                set2(w[t], w[t + 1], src, off[t], off[t + 1], dst, d, len);
+                t += 2;
+            }
+            case 3 -> {
+                set2(w[t], w[t + 1], src, off[t], off[t + 1], dst, d, len);
+                add1(w[t + 2], src, off[t + 2], dst, d, len);
+                t += 3;
+            }
+            default -> {
+                if (t == to) {
+                    java.util.Arrays.fill(dst, d, d + len, 0.0);
+                    return;
+                }
+                set4(w[t], w[t + 1], w[t + 2], w[t + 3], src, off[t], off[t + 1], off[t + 2], off[t + 3], dst, d, len);
+                t += 4;
+            }
+        }
+        for (; t < to; t += 4) {
+            add4(w[t], w[t + 1], w[t + 2], w[t + 3], src, off[t], off[t + 1], off[t + 2], off[t + 3], dst, d, len);
         }
     }
 
-    private static void axpy(double w, double[] x, int xOff, double[] y, int yOff, int n) {
+    private static void set1(double w0, double[] x, int o0, double[] y, int d, int n) {
         for (int i = 0; i < n; i++) {
-            y[yOff + i] += w * x[xOff + i];
+            y[d + i] = w0 * x[o0 + i];
+        }
+    }
+
+    private static void set2(double w0, double w1, double[] x, int o0, int o1, double[] y, int d, int n) {
+        for (int i = 0; i < n; i++) {
+            y[d + i] = w0 * x[o0 + i] + w1 * x[o1 + i];
+        }
+    }
+
+    private static void add1(double w0, double[] x, int o0, double[] y, int d, int n) {
+        for (int i = 0; i < n; i++) {
+            y[d + i] += w0 * x[o0 + i];
+        }
+    }
+
+    private static void set4(double w0, double w1, double w2, double w3, double[] x, int o0, int o1, int o2, int o3,
+                             double[] y, int d, int n) {
+        for (int i = 0; i < n; i++) {
+            y[d + i] = w0 * x[o0 + i] + w1 * x[o1 + i] + w2 * x[o2 + i] + w3 * x[o3 + i];
+        }
+    }
+
+    private static void add4(double w0, double w1, double w2, double w3, double[] x, int o0, int o1, int o2, int o3,
+                             double[] y, int d, int n) {
+        for (int i = 0; i < n; i++) {
+            y[d + i] += w0 * x[o0 + i] + w1 * x[o1 + i] + w2 * x[o2 + i] + w3 * x[o3 + i];
         }
     }
 }
