@@ -9,15 +9,24 @@ import org.stillfield.sampler.api.TensorGridSum;
  *
  * <p>Every box mode function component is N·e_i·X(k_x x)·Y(k_y y)·Z(k_z z) with each factor a sine
  * or a cosine of an integer multiple of π x/a (π y/b, π z/d). Gathering the amplitudes into a
- * dense coefficient array c[l][m][n] per component (both polarisations of one (l,m,n) add), the sum
+ * dense coefficient array c[n][m][l] per component (both polarisations of one (l,m,n) add), the sum
  * over modes on an nx×ny×nz grid is
  * <pre>
- *   T1[l][m][k] = Σ_n c[l][m][n] Z[k][n],  T2[l][j][k] = Σ_m T1[l][m][k] Y[j][m],
- *   F[i][j][k]  = Σ_l T2[l][j][k] X[i][l],
+ *   T1[n][m][i] = Σ_l c[n][m][l] X[l][i],  T2[n][j][i] = Σ_m T1[n][m][i] Y[m][j],
+ *   F[k][j][i]  = Σ_n T2[n][j][i] Z[n][k],
  * </pre>
- * costing (L·M·N·nz + L·M·nz·ny + L·ny·nz·nx) instead of nx·ny·nz·M multiply-adds.
+ * costing (L·M·N·nx + N·M·nx·ny + N·nx·ny·nz) instead of nx·ny·nz·M multiply-adds. z goes last so
+ * that the largest step writes whole x-y slabs, which are contiguous in the output.
+ *
+ * <p>On an axis whose grid is mirror-symmetric about the cavity centre, sin(lπ(a−x)/a) =
+ * (−1)^{l+1} sin(lπx/a) and cos(lπ(a−x)/a) = (−1)^l cos(lπx/a): the even-l and odd-l partial sums
+ * E and O over the first ⌈n/2⌉ points give E + O there and ±(E − O) at the mirror points (− for
+ * sine, + for cosine), which halves that step.
  */
 final class BoxTensorGridSum implements TensorGridSum {
+    // Output points per z-step pass: keeps the step's source rows (3·N·CHUNK doubles) in cache.
+    private static final int CHUNK = 512;
+
     private final int nModes;
     private final int nl;
     private final int nm;
@@ -28,18 +37,19 @@ final class BoxTensorGridSum implements TensorGridSum {
     private final int[] cell;
     private final double[] ue;
     private final double[] hk;
-    // sin/cos tables, row per mode index along the axis: t[l * points + i]
-    private final double[] sx;
-    private final double[] cx;
-    private final double[] sy;
-    private final double[] cy;
-    private final double[] sz;
-    private final double[] cz;
-    // Axes whose grid is mirror-symmetric about the cavity centre, and ⌈n/2⌉ along y
+    // sin/cos tables, one row per mode index along the axis: t[l][i]
+    private final double[][] sx;
+    private final double[][] cx;
+    private final double[][] sy;
+    private final double[][] cy;
+    private final double[][] sz;
+    private final double[][] cz;
+    // Axes whose grid is mirror-symmetric about the cavity centre
     private final boolean fx;
     private final boolean fy;
     private final boolean fz;
-    private final int hy;
+    // sum() runs concurrently; each thread reuses its own scratch.
+    private final ThreadLocal<Scratch> scratch = ThreadLocal.withInitial(Scratch::new);
 
     BoxTensorGridSum(double a, double b, double d, List<Mode> modes, double[] xs, double[] ys, double[] zs) {
         nModes = modes.size();
@@ -62,7 +72,7 @@ final class BoxTensorGridSum implements TensorGridSum {
         hk = new double[3 * nModes];
         for (int q = 0; q < nModes; q++) {
             Mode m = modes.get(q);
-            cell[q] = (m.i1() * nm + m.i2()) * nn + m.i3();
+            cell[q] = (m.i3() * nm + m.i2()) * nl + m.i1();
             double[] coef = RectangularCavity.coefficients(m, a, b, d);
             for (int i = 0; i < 3; i++) {
                 ue[3 * q + i] = coef[i];
@@ -78,7 +88,6 @@ final class BoxTensorGridSum implements TensorGridSum {
         fx = mirrored(xs, a, nl);
         fy = mirrored(ys, b, nm);
         fz = mirrored(zs, d, nn);
-        hy = fy ? (ny + 1) / 2 : ny;
     }
 
     /**
@@ -97,27 +106,39 @@ final class BoxTensorGridSum implements TensorGridSum {
         return true;
     }
 
-    /** t[l * coords.length + i] = sin or cos(l·step·coords[i]). */
-    private static double[] table(double[] coords, int n, double step, boolean sine) {
-        int len = coords.length;
-        double[] t = new double[n * len];
+    /** t[l][i] = sin or cos(l·step·coords[i]). */
+    private static double[][] table(double[] coords, int n, double step, boolean sine) {
+        double[][] t = new double[n][coords.length];
         for (int l = 0; l < n; l++) {
-            for (int i = 0; i < len; i++) {
+            for (int i = 0; i < coords.length; i++) {
                 double th = l * step * coords[i];
-                t[l * len + i] = sine ? Math.sin(th) : Math.cos(th);
+                t[l][i] = sine ? Math.sin(th) : Math.cos(th);
             }
         }
         return t;
     }
 
+    /**
+     * One thread's working arrays; every entry read in a call is written earlier in that call.
+     * Rows are separate arrays so that every loop indexes all its arrays alike, the form C2
+     * vectorises.
+     */
+    private final class Scratch {
+        final double[] c = new double[nl * nm * nn];
+        // T1 row (n, m); T2 x-y plane n per component, x fastest
+        final double[][] t1 = new double[nn * nm][nx];
+        final double[][][] t2 = new double[3][nn][nx * ny];
+        final boolean[] live = new boolean[nn * nm];
+        final boolean[][] liveN = new boolean[3][nn];
+        final Terms terms = new Terms(Math.max(nl, Math.max(nm, nn)), Math.max(nx, nx * ny));
+    }
+
     @Override
     public void sum(double[] amplitudes, boolean curl, double[] out, int offset) {
         double[] coef = curl ? hk : ue;
-        double[] c = new double[nl * nm * nn];
-        double[] t1 = new double[nl * nm * nz];
-        double[] t2 = new double[nl * ny * nz];
-        double[] row = new double[nx];
-        Terms terms = new Terms(Math.max(nl, Math.max(nm, nn)), Math.max(nx, Math.max(ny, nz)));
+        Scratch sc = scratch.get();
+        double[] c = sc.c;
+        boolean[] zCos = new boolean[3];
         for (int comp = 0; comp < 3; comp++) {
             java.util.Arrays.fill(c, 0.0);
             for (int q = 0; q < nModes; q++) {
@@ -126,18 +147,19 @@ final class BoxTensorGridSum implements TensorGridSum {
             // Factor patterns: u = (c s s, s c s, s s c); k·h = (s c c, c s c, c c s).
             boolean xCos = curl ? comp != 0 : comp == 0;
             boolean yCos = curl ? comp != 1 : comp == 1;
-            boolean zCos = curl ? comp != 2 : comp == 2;
-            contract(c, xCos, yCos, zCos, t1, t2, row, terms, out, offset, comp);
+            zCos[comp] = curl ? comp != 2 : comp == 2;
+            contractXy(sc, xCos, yCos, comp);
         }
+        contractZ(sc, zCos, out, offset);
     }
 
     /**
-     * One contraction's term list for one output index: weights and source offsets, even mode
+     * One contraction's term list for one output index: weights and source rows, even mode
      * indices in [0, split) and odd ones in [split, count), plus two scratch rows for the halves.
      */
     private static final class Terms {
         final double[] w;
-        final int[] off;
+        final double[][] src;
         final double[] even;
         final double[] odd;
         int split;
@@ -145,7 +167,7 @@ final class BoxTensorGridSum implements TensorGridSum {
 
         Terms(int modes, int len) {
             w = new double[modes];
-            off = new int[modes];
+            src = new double[modes][];
             even = new double[len];
             odd = new double[len];
         }
@@ -155,9 +177,9 @@ final class BoxTensorGridSum implements TensorGridSum {
         }
 
         // Called with all even indices first, then all odd ones; mark() in between.
-        void add(double weight, int offset) {
+        void add(double weight, double[] row) {
             w[count] = weight;
-            off[count] = offset;
+            src[count] = row;
             count++;
         }
 
@@ -166,180 +188,217 @@ final class BoxTensorGridSum implements TensorGridSum {
         }
     }
 
-    private void contract(double[] c, boolean xCos, boolean yCos, boolean zCos, double[] t1, double[] t2,
-                          double[] row, Terms tm, double[] out, int offset, int comp) {
-        double[] tx = xCos ? cx : sx;
-        double[] ty = yCos ? cy : sy;
-        double[] tz = zCos ? cz : sz;
-        // T1[l][m][k] = Σ_n c[l][m][n] Z[n][k]; (l, m) rows with no mode (outside the cutoff
-        // sphere) are marked dead and skipped in the next step.
-        boolean[] live = new boolean[nl * nm];
-        for (int lm = 0; lm < nl * nm; lm++) {
+    /** T1 and then T2 of one component. */
+    private void contractXy(Scratch sc, boolean xCos, boolean yCos, int comp) {
+        double[] c = sc.c;
+        double[][] t1 = sc.t1;
+        double[][] t2 = sc.t2[comp];
+        boolean[] live = sc.live;
+        boolean[] liveN = sc.liveN[comp];
+        Terms tm = sc.terms;
+        double[][] tx = xCos ? cx : sx;
+        double[][] ty = yCos ? cy : sy;
+        // T1[n][m][i] = Σ_l c[n][m][l] X[l][i]; (n, m) rows with no mode (outside the cutoff
+        // sphere) are marked dead and skipped in the next step, as are n with no live row.
+        java.util.Arrays.fill(liveN, false);
+        for (int nmRow = 0; nmRow < nn * nm; nmRow++) {
             tm.clear();
             for (int parity = 0; parity < 2; parity++) {
-                for (int n = parity; n < nn; n += 2) {
-                    double w = c[lm * nn + n];
+                for (int l = parity; l < nl; l += 2) {
+                    double w = c[nmRow * nl + l];
                     if (w != 0.0) {
-                        tm.add(w, n * nz);
+                        tm.add(w, tx[l]);
                     }
                 }
                 if (parity == 0) {
                     tm.mark();
                 }
             }
+            live[nmRow] = tm.count > 0;
             if (tm.count > 0) {
-                live[lm] = true;
-                expand(tm, tz, fz, zCos, t1, lm * nz, nz);
+                liveN[nmRow / nm] = true;
+                expand(tm, fx, xCos, t1[nmRow], nx);
             }
         }
-        // T2[l][j][k] = Σ_m Y[m][j] T1[l][m][k]
-        for (int l = 0; l < nl; l++) {
+        // T2[n][j][i] = Σ_m Y[m][j] T1[n][m][i]
+        int hy = fy ? (ny + 1) / 2 : ny;
+        for (int n = 0; n < nn; n++) {
+            if (!liveN[n]) {
+                continue;
+            }
             for (int j = 0; j < hy; j++) {
                 tm.clear();
                 for (int parity = 0; parity < 2; parity++) {
                     for (int m = parity; m < nm; m += 2) {
-                        double w = ty[m * ny + j];
-                        if (w != 0.0 && live[l * nm + m]) {
-                            tm.add(w, (l * nm + m) * nz);
+                        double w = ty[m][j];
+                        if (w != 0.0 && live[n * nm + m]) {
+                            tm.add(w, t1[n * nm + m]);
                         }
                     }
                     if (parity == 0) {
                         tm.mark();
                     }
                 }
-                int dst = (l * ny + j) * nz;
-                int mirror = (l * ny + ny - 1 - j) * nz;
+                double[] plane = t2[n];
+                int dst = j * nx;
+                int mirror = (ny - 1 - j) * nx;
+                double[] e = tm.even;
                 if (!fy || mirror == dst) {
-                    combine(t1, tm, 0, tm.count, t2, dst, nz);
+                    combine(tm, 0, tm.count, e, 0, nx);
+                    System.arraycopy(e, 0, plane, dst, nx);
                 } else {
-                    combine(t1, tm, 0, tm.split, t2, dst, nz);
-                    combine(t1, tm, tm.split, tm.count, t2, mirror, nz);
-                    butterfly(t2, dst, t2, mirror, nz, yCos ? 1.0 : -1.0);
-                }
-            }
-        }
-        // F[k][j][i] = Σ_l T2[l][j][k] X[l][i], x fastest, scattered into the interleaved output.
-        for (int k = 0; k < nz; k++) {
-            for (int j = 0; j < ny; j++) {
-                tm.clear();
-                for (int parity = 0; parity < 2; parity++) {
-                    for (int l = parity; l < nl; l += 2) {
-                        double w = t2[(l * ny + j) * nz + k];
-                        if (w != 0.0) {
-                            tm.add(w, l * nx);
-                        }
+                    double[] o = tm.odd;
+                    combine(tm, 0, tm.split, e, 0, nx);
+                    combine(tm, tm.split, tm.count, o, 0, nx);
+                    double s = yCos ? 1.0 : -1.0;
+                    for (int i = 0; i < nx; i++) {
+                        plane[dst + i] = e[i] + o[i];
+                        plane[mirror + i] = s * (e[i] - o[i]);
                     }
-                    if (parity == 0) {
-                        tm.mark();
-                    }
-                }
-                expand(tm, tx, fx, xCos, row, 0, nx);
-                int base = offset + 3 * nx * (j + ny * k) + comp;
-                for (int i = 0; i < nx; i++) {
-                    out[base + 3 * i] = row[i];
                 }
             }
         }
     }
 
     /**
-     * dst[d, d+len) = Σ_t w_t·table[off_t + i] along an axis of len points: directly, or on a
-     * mirror-symmetric axis as even and odd halves over the first ⌈len/2⌉ points, unfolded by parity.
+     * F[k][j][i] = Σ_n T2[n][j][i] Z[n][k] for all three components, a chunk of x-y points at a
+     * time, each output slab written once in interleaved order.
      */
-    private static void expand(Terms tm, double[] table, boolean folded, boolean cosine, double[] dst, int d, int len) {
+    private void contractZ(Scratch sc, boolean[] zCos, double[] out, int offset) {
+        Terms tm = sc.terms;
+        int plane = nx * ny;
+        int hz = fz ? (nz + 1) / 2 : nz;
+        for (int p0 = 0; p0 < plane; p0 += CHUNK) {
+            int len = Math.min(CHUNK, plane - p0);
+            for (int k = 0; k < hz; k++) {
+                int mk = nz - 1 - k;
+                for (int comp = 0; comp < 3; comp++) {
+                    double[][] tz = zCos[comp] ? cz : sz;
+                    boolean[] liveN = sc.liveN[comp];
+                    double[][] t2 = sc.t2[comp];
+                    tm.clear();
+                    for (int parity = 0; parity < 2; parity++) {
+                        for (int n = parity; n < nn; n += 2) {
+                            double w = tz[n][k];
+                            if (w != 0.0 && liveN[n]) {
+                                tm.add(w, t2[n]);
+                            }
+                        }
+                        if (parity == 0) {
+                            tm.mark();
+                        }
+                    }
+                    double[] e = tm.even;
+                    int base = offset + 3 * (plane * k + p0) + comp;
+                    if (!fz || mk == k) {
+                        combine(tm, 0, tm.count, e, p0, p0 + len);
+                        for (int p = 0; p < len; p++) {
+                            out[base + 3 * p] = e[p0 + p];
+                        }
+                    } else {
+                        double[] o = tm.odd;
+                        combine(tm, 0, tm.split, e, p0, p0 + len);
+                        combine(tm, tm.split, tm.count, o, p0, p0 + len);
+                        double s = zCos[comp] ? 1.0 : -1.0;
+                        int mbase = offset + 3 * (plane * mk + p0) + comp;
+                        for (int p = 0; p < len; p++) {
+                            out[base + 3 * p] = e[p0 + p] + o[p0 + p];
+                            out[mbase + 3 * p] = s * (e[p0 + p] - o[p0 + p]);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    /**
+     * dst = Σ_t w_t·row_t along an axis of len points: directly, or on a mirror-symmetric axis as
+     * even and odd halves over the first ⌈len/2⌉ points, unfolded by parity.
+     */
+    private static void expand(Terms tm, boolean folded, boolean cosine, double[] dst, int len) {
         if (!folded) {
-            combine(table, tm, 0, tm.count, dst, d, len);
+            combine(tm, 0, tm.count, dst, 0, len);
             return;
         }
         int half = (len + 1) / 2;
-        combine(table, tm, 0, tm.split, tm.even, 0, half);
-        combine(table, tm, tm.split, tm.count, tm.odd, 0, half);
-        double s = cosine ? 1.0 : -1.0;
         double[] e = tm.even;
         double[] o = tm.odd;
+        combine(tm, 0, tm.split, e, 0, half);
+        combine(tm, tm.split, tm.count, o, 0, half);
+        double s = cosine ? 1.0 : -1.0;
         for (int i = 0; i < half; i++) {
-            dst[d + i] = e[i] + o[i];
+            dst[i] = e[i] + o[i];
         }
         for (int i = 0; i < len / 2; i++) {
-            dst[d + len - 1 - i] = s * (e[i] - o[i]);
-        }
-    }
-
-    /** (a, b) ← (a + b, s·(a − b)) elementwise: even and odd halves to a point and its mirror. */
-    private static void butterfly(double[] x, int a, double[] y, int b, int len, double s) {
-        for (int i = 0; i < len; i++) {
-            double e = x[a + i];
-            double o = y[b + i];
-            x[a + i] = e + o;
-            y[b + i] = s * (e - o);
+            dst[len - 1 - i] = s * (e[i] - o[i]);
         }
     }
 
     /**
-     * dst[d, d+len) = Σ_{t in [from, to)} w_t·src[off_t, off_t+len), four source rows per pass so
+     * dst[i] = Σ_{t in [from, to)} w_t·src_t[i] for i in [lo, hi), four source rows per pass so
      * the destination is loaded and stored once per four multiply-adds.
      */
-    private static void combine(double[] src, Terms tm, int from, int to, double[] dst, int d, int len) {
+    private static void combine(Terms tm, int from, int to, double[] dst, int lo, int hi) {
         double[] w = tm.w;
-        int[] off = tm.off;
+        double[][] x = tm.src;
         int t = from;
         switch ((to - from) & 3) {
             case 1 -> {
-                set1(w[t], src, off[t], dst, d, len);
+                set1(w[t], x[t], dst, lo, hi);
                 t += 1;
             }
             case 2 -> {
-                set2(w[t], w[t + 1], src, off[t], off[t + 1], dst, d, len);
+                set2(w[t], w[t + 1], x[t], x[t + 1], dst, lo, hi);
                 t += 2;
             }
             case 3 -> {
-                set2(w[t], w[t + 1], src, off[t], off[t + 1], dst, d, len);
-                add1(w[t + 2], src, off[t + 2], dst, d, len);
+                set3(w[t], w[t + 1], w[t + 2], x[t], x[t + 1], x[t + 2], dst, lo, hi);
                 t += 3;
             }
             default -> {
                 if (t == to) {
-                    java.util.Arrays.fill(dst, d, d + len, 0.0);
+                    java.util.Arrays.fill(dst, lo, hi, 0.0);
                     return;
                 }
-                set4(w[t], w[t + 1], w[t + 2], w[t + 3], src, off[t], off[t + 1], off[t + 2], off[t + 3], dst, d, len);
+                set4(w[t], w[t + 1], w[t + 2], w[t + 3], x[t], x[t + 1], x[t + 2], x[t + 3], dst, lo, hi);
                 t += 4;
             }
         }
         for (; t < to; t += 4) {
-            add4(w[t], w[t + 1], w[t + 2], w[t + 3], src, off[t], off[t + 1], off[t + 2], off[t + 3], dst, d, len);
+            add4(w[t], w[t + 1], w[t + 2], w[t + 3], x[t], x[t + 1], x[t + 2], x[t + 3], dst, lo, hi);
         }
     }
 
-    private static void set1(double w0, double[] x, int o0, double[] y, int d, int n) {
-        for (int i = 0; i < n; i++) {
-            y[d + i] = w0 * x[o0 + i];
+    private static void set1(double w0, double[] x0, double[] y, int lo, int hi) {
+        for (int i = lo; i < hi; i++) {
+            y[i] = w0 * x0[i];
         }
     }
 
-    private static void set2(double w0, double w1, double[] x, int o0, int o1, double[] y, int d, int n) {
-        for (int i = 0; i < n; i++) {
-            y[d + i] = w0 * x[o0 + i] + w1 * x[o1 + i];
+    private static void set2(double w0, double w1, double[] x0, double[] x1, double[] y, int lo, int hi) {
+        for (int i = lo; i < hi; i++) {
+            y[i] = w0 * x0[i] + w1 * x1[i];
         }
     }
 
-    private static void add1(double w0, double[] x, int o0, double[] y, int d, int n) {
-        for (int i = 0; i < n; i++) {
-            y[d + i] += w0 * x[o0 + i];
+    private static void set3(double w0, double w1, double w2, double[] x0, double[] x1, double[] x2,
+                             double[] y, int lo, int hi) {
+        for (int i = lo; i < hi; i++) {
+            y[i] = w0 * x0[i] + w1 * x1[i] + w2 * x2[i];
         }
     }
 
-    private static void set4(double w0, double w1, double w2, double w3, double[] x, int o0, int o1, int o2, int o3,
-                             double[] y, int d, int n) {
-        for (int i = 0; i < n; i++) {
-            y[d + i] = w0 * x[o0 + i] + w1 * x[o1 + i] + w2 * x[o2 + i] + w3 * x[o3 + i];
+    private static void set4(double w0, double w1, double w2, double w3, double[] x0, double[] x1, double[] x2,
+                             double[] x3, double[] y, int lo, int hi) {
+        for (int i = lo; i < hi; i++) {
+            y[i] = w0 * x0[i] + w1 * x1[i] + w2 * x2[i] + w3 * x3[i];
         }
     }
 
-    private static void add4(double w0, double w1, double w2, double w3, double[] x, int o0, int o1, int o2, int o3,
-                             double[] y, int d, int n) {
-        for (int i = 0; i < n; i++) {
-            y[d + i] += w0 * x[o0 + i] + w1 * x[o1 + i] + w2 * x[o2 + i] + w3 * x[o3 + i];
+    private static void add4(double w0, double w1, double w2, double w3, double[] x0, double[] x1, double[] x2,
+                             double[] x3, double[] y, int lo, int hi) {
+        for (int i = lo; i < hi; i++) {
+            y[i] += w0 * x0[i] + w1 * x1[i] + w2 * x2[i] + w3 * x3[i];
         }
     }
 }
