@@ -48,6 +48,8 @@ final class BoxTensorGridSum implements TensorGridSum {
     private final boolean fx;
     private final boolean fy;
     private final boolean fz;
+    // z's folded half is mirror-symmetric again, about d/4
+    private final boolean fz2;
     // sum() runs concurrently; each thread reuses its own scratch.
     private final ThreadLocal<Scratch> scratch = ThreadLocal.withInitial(Scratch::new);
 
@@ -88,6 +90,7 @@ final class BoxTensorGridSum implements TensorGridSum {
         fx = mirrored(xs, a, nl);
         fy = mirrored(ys, b, nm);
         fz = mirrored(zs, d, nn);
+        fz2 = fz && nz % 2 == 0 && mirrored(java.util.Arrays.copyOf(zs, nz / 2), d / 2, (nn + 1) / 2);
     }
 
     /**
@@ -131,6 +134,7 @@ final class BoxTensorGridSum implements TensorGridSum {
         final boolean[] live = new boolean[nn * nm];
         final boolean[][] liveN = new boolean[3][nn];
         final Terms terms = new Terms(Math.max(nl, Math.max(nm, nn)), Math.max(nx, nx * ny));
+        final double[] third = new double[nx * ny];
     }
 
     @Override
@@ -263,51 +267,92 @@ final class BoxTensorGridSum implements TensorGridSum {
     /**
      * F[k][j][i] = Σ_n T2[n][j][i] Z[n][k] for all three components, a chunk of x-y points at a
      * time, each output slab written once in interleaved order.
+     *
+     * <p>When z's folded half is mirror-symmetric about d/4 as well, the even-n part folds again:
+     * n = 2n' gives Z(d/2 − z) = ±(−1)^{n'} Z(z) with the same sine/cosine sign, so n ≡ 0 and
+     * n ≡ 2 (mod 4) partial sums over a quarter of the points give it at k and hz − 1 − k.
      */
     private void contractZ(Scratch sc, boolean[] zCos, double[] out, int offset) {
         Terms tm = sc.terms;
         int plane = nx * ny;
         int hz = fz ? (nz + 1) / 2 : nz;
+        int quarter = fz2 ? hz / 2 : 0;
         for (int p0 = 0; p0 < plane; p0 += CHUNK) {
-            int len = Math.min(CHUNK, plane - p0);
-            for (int k = 0; k < hz; k++) {
+            int hi = Math.min(plane, p0 + CHUNK);
+            for (int k = 0; k < quarter; k++) {
+                int kk = hz - 1 - k;
+                for (int comp = 0; comp < 3; comp++) {
+                    double[][] tz = zCos[comp] ? cz : sz;
+                    boolean[] liveN = sc.liveN[comp];
+                    double[][] t2 = sc.t2[comp];
+                    double s = zCos[comp] ? 1.0 : -1.0;
+                    double[] e = tm.even;
+                    double[] e2 = sc.third;
+                    double[] o = tm.odd;
+                    gather(tm, tz, liveN, t2, k, 0, 4);
+                    combine(tm, 0, tm.count, e, p0, hi);
+                    gather(tm, tz, liveN, t2, k, 2, 4);
+                    combine(tm, 0, tm.count, e2, p0, hi);
+                    for (int p = p0; p < hi; p++) {
+                        double a = e[p];
+                        double b = e2[p];
+                        e[p] = a + b;
+                        e2[p] = s * (a - b);
+                    }
+                    gather(tm, tz, liveN, t2, k, 1, 2);
+                    combine(tm, 0, tm.count, o, p0, hi);
+                    writeHalves(out, offset, comp, k, e, o, s, p0, hi);
+                    gather(tm, tz, liveN, t2, kk, 1, 2);
+                    combine(tm, 0, tm.count, o, p0, hi);
+                    writeHalves(out, offset, comp, kk, e2, o, s, p0, hi);
+                }
+            }
+            for (int k = quarter; k < hz - quarter; k++) {
                 int mk = nz - 1 - k;
                 for (int comp = 0; comp < 3; comp++) {
                     double[][] tz = zCos[comp] ? cz : sz;
                     boolean[] liveN = sc.liveN[comp];
                     double[][] t2 = sc.t2[comp];
-                    tm.clear();
-                    for (int parity = 0; parity < 2; parity++) {
-                        for (int n = parity; n < nn; n += 2) {
-                            double w = tz[n][k];
-                            if (w != 0.0 && liveN[n]) {
-                                tm.add(w, t2[n]);
-                            }
-                        }
-                        if (parity == 0) {
-                            tm.mark();
-                        }
-                    }
                     double[] e = tm.even;
-                    int base = offset + 3 * (plane * k + p0) + comp;
                     if (!fz || mk == k) {
-                        combine(tm, 0, tm.count, e, p0, p0 + len);
-                        for (int p = 0; p < len; p++) {
-                            out[base + 3 * p] = e[p0 + p];
+                        gather(tm, tz, liveN, t2, k, 0, 1);
+                        combine(tm, 0, tm.count, e, p0, hi);
+                        int base = offset + 3 * plane * k + comp;
+                        for (int p = p0; p < hi; p++) {
+                            out[base + 3 * p] = e[p];
                         }
                     } else {
                         double[] o = tm.odd;
-                        combine(tm, 0, tm.split, e, p0, p0 + len);
-                        combine(tm, tm.split, tm.count, o, p0, p0 + len);
-                        double s = zCos[comp] ? 1.0 : -1.0;
-                        int mbase = offset + 3 * (plane * mk + p0) + comp;
-                        for (int p = 0; p < len; p++) {
-                            out[base + 3 * p] = e[p0 + p] + o[p0 + p];
-                            out[mbase + 3 * p] = s * (e[p0 + p] - o[p0 + p]);
-                        }
+                        gather(tm, tz, liveN, t2, k, 0, 2);
+                        combine(tm, 0, tm.count, e, p0, hi);
+                        gather(tm, tz, liveN, t2, k, 1, 2);
+                        combine(tm, 0, tm.count, o, p0, hi);
+                        writeHalves(out, offset, comp, k, e, o, zCos[comp] ? 1.0 : -1.0, p0, hi);
                     }
                 }
             }
+        }
+    }
+
+    /** Terms n = first, first + step, ... of z row k. */
+    private void gather(Terms tm, double[][] tz, boolean[] liveN, double[][] t2, int k, int first, int step) {
+        tm.clear();
+        for (int n = first; n < nn; n += step) {
+            double w = tz[n][k];
+            if (w != 0.0 && liveN[n]) {
+                tm.add(w, t2[n]);
+            }
+        }
+    }
+
+    /** Output rows k and nz − 1 − k of one component from the even and odd halves, points [p0, hi). */
+    private void writeHalves(double[] out, int offset, int comp, int k, double[] e, double[] o, double s, int p0, int hi) {
+        int plane = nx * ny;
+        int base = offset + 3 * plane * k + comp;
+        int mbase = offset + 3 * plane * (nz - 1 - k) + comp;
+        for (int p = p0; p < hi; p++) {
+            out[base + 3 * p] = e[p] + o[p];
+            out[mbase + 3 * p] = s * (e[p] - o[p]);
         }
     }
 

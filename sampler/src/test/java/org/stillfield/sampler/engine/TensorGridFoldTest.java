@@ -37,6 +37,8 @@ class TensorGridFoldTest {
     void evenCellCentredGridOverTheBox(boolean curl) {
         assertCovers(MODES);
         check(BOX, MODES, cells(0, A, 8), cells(0, B, 6), cells(0, D, 10), curl, 1L);
+        // nz a multiple of 4: each folded half is mirror-symmetric about its own centre, too.
+        check(BOX, MODES, cells(0, A, 6), cells(0, B, 4), cells(0, D, 12), curl, 11L);
     }
 
     @ParameterizedTest
@@ -97,6 +99,7 @@ class TensorGridFoldTest {
             assertTrue(subset.size() > 10, "pattern " + pattern + " has " + subset.size() + " modes");
             check(BOX, subset, cells(0, A, 8), cells(0, B, 7), cells(0, D, 6), curl, 20L + pattern);
             check(BOX, subset, vertices(0, A, 5), cells(0, B, 4), cells(0, D, 9), curl, 40L + pattern);
+            check(BOX, subset, cells(0, A, 6), vertices(0, B, 5), cells(0, D, 8), curl, 60L + pattern);
         }
     }
 
