@@ -138,16 +138,23 @@ final class BoxTensorGridSum implements TensorGridSum {
     }
 
     @Override
-    public void sum(double[] amplitudes, boolean curl, double[] out, int offset) {
+    public boolean sum(double[] amplitudes, boolean curl, double[] out, int offset) {
         double[] coef = curl ? hk : ue;
         Scratch sc = scratch.get();
         double[] c = sc.c;
         boolean[] zCos = new boolean[3];
+        // Every table entry is a sine or cosine, |·| ≤ 1, so every partial sum, folded half and
+        // output value is bounded by 2·Σ|a·coef|: a finite, moderate bound proves the grid finite.
+        boolean finite = true;
         for (int comp = 0; comp < 3; comp++) {
             java.util.Arrays.fill(c, 0.0);
+            double bound = 0.0;
             for (int q = 0; q < nModes; q++) {
-                c[cell[q]] += amplitudes[q] * coef[3 * q + comp];
+                double term = amplitudes[q] * coef[3 * q + comp];
+                c[cell[q]] += term;
+                bound += Math.abs(term);
             }
+            finite &= bound < 1e300;
             // Factor patterns: u = (c s s, s c s, s s c); k·h = (s c c, c s c, c c s).
             boolean xCos = curl ? comp != 0 : comp == 0;
             boolean yCos = curl ? comp != 1 : comp == 1;
@@ -155,6 +162,7 @@ final class BoxTensorGridSum implements TensorGridSum {
             contractXy(sc, xCos, yCos, comp);
         }
         contractZ(sc, zCos, out, offset);
+        return finite;
     }
 
     /**

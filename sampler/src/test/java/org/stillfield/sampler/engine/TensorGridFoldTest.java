@@ -103,6 +103,26 @@ class TensorGridFoldTest {
         }
     }
 
+    /**
+     * The finiteness proof must not vouch for inputs that can overflow or are not numbers: then the
+     * caller checks the values itself (and names the point).
+     */
+    @ParameterizedTest
+    @ValueSource(doubles = {1e305, Double.POSITIVE_INFINITY, Double.NaN})
+    void hugeOrNonFiniteAmplitudesAreNotProvenFinite(double bad) {
+        double[] xs = cells(0, A, 4);
+        double[] ys = cells(0, B, 4);
+        double[] zs = cells(0, D, 4);
+        TensorGridSum sum = BOX.tensorGridSum(MODES, xs, ys, zs);
+        double[] amp = new double[MODES.size()];
+        java.util.Arrays.fill(amp, 1e-6);
+        double[] out = new double[3 * 64];
+        assertTrue(sum.sum(amp, false, out, 0), "moderate amplitudes");
+        amp[MODES.size() / 2] = bad;
+        org.junit.jupiter.api.Assertions.assertFalse(sum.sum(amp, false, out, 0), "amplitude " + bad);
+        org.junit.jupiter.api.Assertions.assertFalse(sum.sum(amp, true, out, 0), "amplitude " + bad + ", curl");
+    }
+
     /** Cell-centred coordinates lo + (i + ½)(hi − lo)/n, as PointSet.grid places them. */
     private static double[] cells(double lo, double hi, int n) {
         double[] x = new double[n];
@@ -147,7 +167,7 @@ class TensorGridFoldTest {
         int points = xs.length * ys.length * zs.length;
         // Offset output: the sum must write only its own range.
         double[] fast = new double[3 * points + 5];
-        sum.sum(amp, curl, fast, 2);
+        assertTrue(sum.sum(amp, curl, fast, 2), "moderate amplitudes: the grid is proven finite");
 
         ModeFunctions f = box.modeFunctions(modes);
         double[] u = new double[3 * count];
