@@ -113,6 +113,23 @@ final class ColumnBlockWriter implements Closeable {
         }
     }
 
+    /** One column's encoding state: its own buffers and codec, so columns can be encoded concurrently. */
+    private static final class ColumnEncoder {
+        final byte[] scratch;
+        final DeltaBinaryPackingValuesWriterForInteger ints;
+        final DeltaBinaryPackingValuesWriterForLong longs;
+        final BytesInputCompressor compressor;
+
+        ColumnEncoder(PrimitiveTypeName type, int pageRows, CompressionCodecName codec) {
+            HeapByteBufferAllocator heap = HeapByteBufferAllocator.getInstance();
+            scratch = type == PrimitiveTypeName.DOUBLE ? new byte[8 * pageRows]
+                : type == PrimitiveTypeName.FLOAT ? new byte[4 * pageRows] : null;
+            ints = type == PrimitiveTypeName.INT32 ? new DeltaBinaryPackingValuesWriterForInteger(1 << 16, 4 * pageRows, heap) : null;
+            longs = type == PrimitiveTypeName.INT64 ? new DeltaBinaryPackingValuesWriterForLong(1 << 16, 8 * pageRows, heap) : null;
+            compressor = new PureJavaCodecs().getCompressor(codec);
+        }
+    }
+
     /** An encoded, compressed page waiting for its row group. */
     private record EncodedPage(byte[] bytes, int uncompressedSize, int values, int rows, Statistics<?> stats,
                                Encoding dlEncoding, Encoding valuesEncoding) {
@@ -126,15 +143,13 @@ final class ColumnBlockWriter implements Closeable {
     private final Map<String, String> metadata;
     private final long rowGroupBytes;
     private final CompressionCodecName codec;
-    private final BytesInputCompressor compressor;
+    private final ColumnEncoder[] encoders;
+    private final java.util.concurrent.ExecutorService pool;
     private final ParquetFileWriter writer;
     private final Page page;
     private final int pageRows;
     private final List<List<EncodedPage>> pending = new ArrayList<>();
-    private final DeltaBinaryPackingValuesWriterForInteger ints;
-    private final DeltaBinaryPackingValuesWriterForLong longs;
     private final RunLengthBitPackingHybridEncoder levels;
-    private byte[] scratch;
     private int fill;
     private long groupRows;
     private long groupBytes;
@@ -155,7 +170,6 @@ final class ColumnBlockWriter implements Closeable {
             throw new IllegalArgumentException("pageRows " + pageRows + " outside [1, " + MAX_PAGE_ROWS + "]");
         }
         this.pageRows = pageRows;
-        this.scratch = new byte[8 * pageRows];
         this.schema = schema;
         this.descriptors = schema.getColumns();
         this.optional = new boolean[schema.getFieldCount()];
@@ -172,10 +186,19 @@ final class ColumnBlockWriter implements Closeable {
         this.codec = codec;
         this.page = new Page(columns, anyOptional, pageRows);
         HeapByteBufferAllocator heap = HeapByteBufferAllocator.getInstance();
-        this.ints = new DeltaBinaryPackingValuesWriterForInteger(1 << 16, 4 * pageRows, heap);
-        this.longs = new DeltaBinaryPackingValuesWriterForLong(1 << 16, 8 * pageRows, heap);
         this.levels = new RunLengthBitPackingHybridEncoder(1, 256, Math.max(256, pageRows / 8 + 64), heap);
-        this.compressor = new PureJavaCodecs().getCompressor(codec);
+        this.encoders = new ColumnEncoder[columns.size()];
+        for (int c = 0; c < encoders.length; c++) {
+            encoders[c] = new ColumnEncoder(columns.get(c).getPrimitiveTypeName(), pageRows, codec);
+        }
+        // Columns are encoded and compressed concurrently: the page bytes do not depend on it, and
+        // a single encoding thread would otherwise leave a core idle behind the synthesis.
+        int threads = Math.min(encoders.length, Runtime.getRuntime().availableProcessors());
+        this.pool = threads <= 1 ? null : java.util.concurrent.Executors.newFixedThreadPool(threads, r -> {
+            Thread t = new Thread(r, "stillfield-encode");
+            t.setDaemon(true);
+            return t;
+        });
         this.file = new HashingOutputFile(path);
         this.writer = new ParquetFileWriter(file, schema, ParquetFileWriter.Mode.CREATE, rowGroupBytes, 0);
         writer.start();
@@ -228,10 +251,27 @@ final class ColumnBlockWriter implements Closeable {
             }
             dl = definitionLevels(present, presentCount);
         }
-        for (int c = 0; c < columns.size(); c++) {
-            EncodedPage p = encode(c, optional[c] ? present : null, presentCount, optional[c] ? dl : null);
-            pending.get(c).add(p);
-            groupBytes += p.bytes.length;
+        EncodedPage[] pages = new EncodedPage[columns.size()];
+        if (pool == null) {
+            for (int c = 0; c < pages.length; c++) {
+                pages[c] = encode(c, optional[c] ? present : null, presentCount, optional[c] ? dl : null);
+            }
+        } else {
+            List<java.util.concurrent.Future<EncodedPage>> jobs = new ArrayList<>();
+            for (int c = 0; c < pages.length; c++) {
+                int col = c;
+                int valueCount = presentCount;
+                BytesInput levelsOfPage = dl;
+                jobs.add(pool.submit(() -> encode(col, optional[col] ? present : null, valueCount,
+                    optional[col] ? levelsOfPage : null)));
+            }
+            for (int c = 0; c < pages.length; c++) {
+                pages[c] = result(jobs.get(c));
+            }
+        }
+        for (int c = 0; c < pages.length; c++) {
+            pending.get(c).add(pages[c]);
+            groupBytes += pages[c].bytes.length;
         }
         groupRows += fill;
         fill = 0;
@@ -240,7 +280,29 @@ final class ColumnBlockWriter implements Closeable {
         }
     }
 
-    // RLE/bit-packed hybrid with bit width 1, prefixed by its 4-byte length (data page v1).
+    private static EncodedPage result(java.util.concurrent.Future<EncodedPage> job) throws IOException {
+        try {
+            return job.get();
+        } catch (InterruptedException ex) {
+            Thread.currentThread().interrupt();
+            throw new java.io.InterruptedIOException("interrupted while encoding a page");
+        } catch (java.util.concurrent.ExecutionException ex) {
+            Throwable c = ex.getCause();
+            if (c instanceof IOException) {
+                throw (IOException) c;
+            }
+            if (c instanceof RuntimeException) {
+                throw (RuntimeException) c;
+            }
+            if (c instanceof Error) {
+                throw (Error) c;
+            }
+            throw new IOException(c);
+        }
+    }
+
+    // RLE/bit-packed hybrid with bit width 1, prefixed by its 4-byte length (data page v1). The
+    // bytes are materialised, so column tasks may read them concurrently.
     private BytesInput definitionLevels(boolean[] present, int presentCount) throws IOException {
         byte[] body;
         if (presentCount == fill) {
@@ -254,11 +316,14 @@ final class ColumnBlockWriter implements Closeable {
             }
             body = levels.toBytes().toByteArray();
         }
-        return BytesInput.concat(BytesInput.fromInt(body.length), BytesInput.from(body));
+        return BytesInput.from(BytesInput.concat(BytesInput.fromInt(body.length), BytesInput.from(body)).toByteArray());
     }
 
     private EncodedPage encode(int c, boolean[] present, int valueCount, BytesInput dl) throws IOException {
         PrimitiveType type = columns.get(c);
+        ColumnEncoder st = encoders[c];
+        DeltaBinaryPackingValuesWriterForLong longs = st.longs;
+        DeltaBinaryPackingValuesWriterForInteger ints = st.ints;
         Statistics<?> stats = Statistics.createStats(type);
         stats.incrementNumNulls(fill - valueCount);
         BytesInput values;
@@ -305,12 +370,12 @@ final class ColumnBlockWriter implements Closeable {
                 break;
             }
             case FLOAT: {
-                values = splitFloats(page.float32(c), present, valueCount, stats);
+                values = splitFloats(st.scratch, page.float32(c), present, valueCount, stats);
                 enc = Encoding.BYTE_STREAM_SPLIT;
                 break;
             }
             case DOUBLE: {
-                values = splitDoubles(page.float64(c), present, valueCount, stats);
+                values = splitDoubles(st.scratch, page.float64(c), present, valueCount, stats);
                 enc = Encoding.BYTE_STREAM_SPLIT;
                 break;
             }
@@ -319,7 +384,7 @@ final class ColumnBlockWriter implements Closeable {
         }
         BytesInput body = dl == null ? values : BytesInput.concat(dl, values);
         long raw = body.size();
-        byte[] compressed = compressor.compress(body).toByteArray();
+        byte[] compressed = st.compressor.compress(body).toByteArray();
         boolean hasLevels = optional[c];
         return new EncodedPage(compressed, Math.toIntExact(raw), fill, fill, stats,
             hasLevels ? Encoding.RLE : Encoding.BIT_PACKED, enc);
@@ -327,10 +392,9 @@ final class ColumnBlockWriter implements Closeable {
 
     // BYTE_STREAM_SPLIT: byte k of the i-th present value goes to scratch[k * n + i]. Present
     // values are finite (the synthesiser checks), so plain comparisons give min and max.
-    private BytesInput splitFloats(float[] v, boolean[] present, int n, Statistics<?> stats) {
+    private BytesInput splitFloats(byte[] out, float[] v, boolean[] present, int n, Statistics<?> stats) {
         float min = Float.POSITIVE_INFINITY;
         float max = Float.NEGATIVE_INFINITY;
-        byte[] out = scratch;
         if (n == fill) {
             for (int r = 0; r < n; r++) {
                 float x = v[r];
@@ -365,7 +429,7 @@ final class ColumnBlockWriter implements Closeable {
         return BytesInput.from(out, 0, 4 * n);
     }
 
-    private BytesInput splitDoubles(double[] v, boolean[] present, int n, Statistics<?> stats) {
+    private BytesInput splitDoubles(byte[] scratch, double[] v, boolean[] present, int n, Statistics<?> stats) {
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
         int i = 0;
@@ -430,7 +494,9 @@ final class ColumnBlockWriter implements Closeable {
             }
             throw ex;
         } finally {
-            scratch = null;
+            if (pool != null) {
+                pool.shutdownNow();
+            }
         }
     }
 
