@@ -21,7 +21,7 @@ for case in grid64:$sg points:$sp; do
 done
 
 # (b) end to end, both timed from outside as whole processes (interpreter or JVM start, mode set-up
-# and all writes included): Stillfield's own command writing a float32 dataset with Snappy pages,
+# and all writes included): Stillfield's own command writing a float32 dataset with uncompressed pages,
 # against NumPy writing one raw float32 .npy; medians over REPEATS runs of each.
 tmp_out="$(mktemp -d)"
 wall() { local t0 t1; t0=$(date +%s.%N); "$@" > /dev/null; t1=$(date +%s.%N); python3 -c "print($se/($t1-$t0))"; }

@@ -45,6 +45,8 @@ import org.apache.parquet.schema.Type;
 final class ColumnBlockWriter implements Closeable {
     /** Most rows per page: a float page is then 512 KiB, a double page 1 MiB (Parquet's usual page size). */
     static final int MAX_PAGE_ROWS = 1 << 17;
+    /** Fewest rows a fill task gets when a fill is split over threads. */
+    private static final int FILL_CHUNK = 8192;
     /** Fewest rows per page, Parquet's own default row limit per page. */
     static final int MIN_PAGE_ROWS = 20_000;
 
@@ -60,7 +62,11 @@ final class ColumnBlockWriter implements Closeable {
         return (int) Math.max(MIN_PAGE_ROWS, Math.min(MAX_PAGE_ROWS, rowsPerSample));
     }
 
-    /** Fills {@code count} rows of a page at array index {@code at}; {@code first} counts rows from the start of the append. */
+    /**
+     * Fills {@code count} rows of a page at array index {@code at}; {@code first} counts rows from
+     * the start of the append. It may be called concurrently for disjoint row ranges, so it must
+     * write only its own rows and read only shared, unchanging data.
+     */
     @FunctionalInterface
     interface Filler {
         /**
@@ -150,6 +156,7 @@ final class ColumnBlockWriter implements Closeable {
     private final int pageRows;
     private final List<List<EncodedPage>> pending = new ArrayList<>();
     private final RunLengthBitPackingHybridEncoder levels;
+    private final int fillThreads;
     private int fill;
     private long groupRows;
     private long groupBytes;
@@ -194,6 +201,7 @@ final class ColumnBlockWriter implements Closeable {
         // Columns are encoded and compressed concurrently: the page bytes do not depend on it, and
         // a single encoding thread would otherwise leave a core idle behind the synthesis.
         int threads = Math.min(encoders.length, Runtime.getRuntime().availableProcessors());
+        this.fillThreads = Runtime.getRuntime().availableProcessors();
         this.pool = threads <= 1 ? null : java.util.concurrent.Executors.newFixedThreadPool(threads, r -> {
             Thread t = new Thread(r, "stillfield-encode");
             t.setDaemon(true);
@@ -217,13 +225,36 @@ final class ColumnBlockWriter implements Closeable {
         long done = 0;
         while (done < count) {
             int take = (int) Math.min(count - done, pageRows - fill);
-            filler.fill(done, take, page, fill);
+            fill(filler, done, take);
             fill += take;
             done += take;
             rows += take;
             if (fill == pageRows) {
                 flushPage();
             }
+        }
+    }
+
+    // Large fills are split over the encoding threads: copying and narrowing the values is a
+    // serial cost comparable to encoding them.
+    private void fill(Filler filler, long first, int take) throws IOException {
+        int parts = pool == null || take < 2 * FILL_CHUNK ? 1 : Math.min(fillThreads, take / FILL_CHUNK);
+        if (parts == 1) {
+            filler.fill(first, take, page, fill);
+            return;
+        }
+        List<java.util.concurrent.Future<EncodedPage>> jobs = new ArrayList<>();
+        int at = fill;
+        for (int k = 0; k < parts; k++) {
+            int lo = (int) ((long) take * k / parts);
+            int hi = (int) ((long) take * (k + 1) / parts);
+            jobs.add(pool.submit(() -> {
+                filler.fill(first + lo, hi - lo, page, at + lo);
+                return null;
+            }));
+        }
+        for (java.util.concurrent.Future<EncodedPage> j : jobs) {
+            result(j);
         }
     }
 

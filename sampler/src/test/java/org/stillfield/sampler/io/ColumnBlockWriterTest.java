@@ -142,6 +142,15 @@ class ColumnBlockWriterTest {
     }
 
     @Test
+    void oneLargeAppendFilledByConcurrentTasksReadsBack() throws Exception {
+        // Whole-page fills of 131 072 rows are split over the encoding threads (on a machine with
+        // more than one core); each row must still land in its own place.
+        long rows = 3L * ColumnBlockWriter.MAX_PAGE_ROWS + 11;
+        Path file = write(CompressionCodecName.SNAPPY, rows, ColumnBlockWriter.MAX_PAGE_ROWS, 64L << 20, (int) rows);
+        assertReadsBack(file, rows);
+    }
+
+    @Test
     void anEmptyTableIsAValidFile() throws Exception {
         Path file = write(CompressionCodecName.ZSTD, 0, 20_000, 64L << 20, 1);
         assertReadsBack(file, 0);
