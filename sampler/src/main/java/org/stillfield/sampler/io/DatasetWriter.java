@@ -251,6 +251,13 @@ public final class DatasetWriter implements EnsembleSink {
         t.setDaemon(true);
         return t;
     });
+    // Finishes a closed part (fsync, rename, record) while the next part is being written.
+    private final ExecutorService finisher = Executors.newSingleThreadExecutor(r -> {
+        Thread t = new Thread(r, "stillfield-part-finisher");
+        t.setDaemon(true);
+        return t;
+    });
+    private Future<Void> finishing;
     private final List<Integer> pendingParts;
     private int nextPending;
     /** The part being written, or -1. */
@@ -460,9 +467,11 @@ public final class DatasetWriter implements EnsembleSink {
             prepare();
         } catch (IOException ex) {
             helper.shutdown();
+            finisher.shutdown();
             throw failure(ex);
         } catch (RuntimeException | Error ex) {
             helper.shutdown();
+            finisher.shutdown();
             throw ex;
         }
     }
@@ -795,6 +804,8 @@ public final class DatasetWriter implements EnsembleSink {
             ColumnBlockWriter.pageRows(modeCount));
         fieldValues = new ColumnBlockWriter(fieldsTemp, ft.schema(), Layout.footer(footer, ft), ROW_GROUP_BYTES, codec,
             ColumnBlockWriter.pageRows(pointCount));
+        amplitudes.file().deferForce();
+        fieldValues.file().deferForce();
     }
 
     private String describeParts() {
@@ -906,28 +917,60 @@ public final class DatasetWriter implements EnsembleSink {
         ColumnBlockWriter[] writers = {amplitudes, fieldValues};
         Path[] temps = {amplitudesTemp, fieldsTemp};
         for (int i = 0; i < 2; i++) {
-            Path dest = target.resolve(names[i]);
-            // A final name left by a killed attempt (renamed, but no record yet) is replaced.
-            Files.move(temps[i], dest, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
             ObjectNode o = files.addObject();
             o.put("name", names[i]);
             o.put("rows", writers[i].rows());
             o.put("bytes", writers[i].file().length());
             o.put("sha256", writers[i].file().sha256());
         }
-        syncFolder(target.resolve(Layout.AMPLITUDES));
-        syncFolder(target.resolve(Layout.FIELDS));
-        Path record = target.resolve(Layout.partRecord(part));
-        Path tmp = temp(record);
-        writeJson(tmp, rec);
-        Files.move(tmp, record, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
-        syncFolder(record.getParent());
+        int k = part;
         amplitudes = null;
         fieldValues = null;
         amplitudesTemp = null;
         fieldsTemp = null;
         part = -1;
         nextPending++;
+        // One part at a time in the finisher: records stay in part order, a failure surfaces at the
+        // next part's end at the latest, and at most one closed part waits for the disk.
+        awaitFinisher();
+        finishing = finisher.submit(() -> {
+            try {
+                finishPart(k, names, writers, temps, rec);
+            } catch (IOException | RuntimeException | Error ex) {
+                for (Path t : temps) {
+                    Files.deleteIfExists(t);
+                }
+                throw ex;
+            }
+            return null;
+        });
+    }
+
+    /** Forces a closed part's files to disk, renames them into place, then writes its record. */
+    private void finishPart(int k, String[] names, ColumnBlockWriter[] writers, Path[] temps, ObjectNode rec)
+        throws IOException {
+        for (int i = 0; i < 2; i++) {
+            writers[i].file().force();
+            Path dest = target.resolve(names[i]);
+            // A final name left by a killed attempt (renamed, but no record yet) is replaced.
+            Files.move(temps[i], dest, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        }
+        syncFolder(target.resolve(Layout.AMPLITUDES));
+        syncFolder(target.resolve(Layout.FIELDS));
+        Path record = target.resolve(Layout.partRecord(k));
+        Path tmp = temp(record);
+        writeJson(tmp, rec);
+        Files.move(tmp, record, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        syncFolder(record.getParent());
+    }
+
+    /** Waits for the previous part's finishing, rethrowing its failure. */
+    private void awaitFinisher() throws IOException {
+        Future<Void> f = finishing;
+        finishing = null;
+        if (f != null) {
+            await(f);
+        }
     }
 
     /** Waits for the helper even when interrupted: returning early would let it race with close(). */
@@ -978,6 +1021,8 @@ public final class DatasetWriter implements EnsembleSink {
                     + " of " + describeParts() + " is not complete");
             }
             helper.shutdown();
+            awaitFinisher();
+            finisher.shutdown();
             if (plan.found == Found.COMPLETE) {
                 outcome = Outcome.ALREADY_COMPLETE;
                 partsPresent = plan.partCount;
@@ -1130,6 +1175,13 @@ public final class DatasetWriter implements EnsembleSink {
         }
         state = State.CLOSED;
         helper.shutdown();
+        try {
+            awaitFinisher();
+        } catch (IOException | RuntimeException ex) {
+            // Already reported by accept() or finish(), or the run failed otherwise first; the
+            // finisher removed its part's temporary files.
+        }
+        finisher.shutdown();
         for (ColumnBlockWriter w : new ColumnBlockWriter[] {amplitudes, fieldValues}) {
             if (w != null) {
                 try {

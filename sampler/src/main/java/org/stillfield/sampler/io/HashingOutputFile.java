@@ -23,6 +23,7 @@ final class HashingOutputFile implements OutputFile {
     private final MessageDigest digest;
     private long length = -1;
     private String sha256;
+    private volatile boolean forceOnClose = true;
 
     HashingOutputFile(Path path) {
         this.path = path;
@@ -62,6 +63,22 @@ final class HashingOutputFile implements OutputFile {
     @Override
     public String getPath() {
         return path.toString();
+    }
+
+    /**
+     * Closing will not wait for the disk; the owner calls {@link #force()} later (on another
+     * thread, so the next file's writing overlaps this one's flush to disk) and must not rename the
+     * file into place before that returns.
+     */
+    void deferForce() {
+        forceOnClose = false;
+    }
+
+    /** Forces the closed file's contents to disk (fsync acts on the file, whichever descriptor). */
+    void force() throws IOException {
+        try (FileChannel c = FileChannel.open(path, StandardOpenOption.WRITE)) {
+            c.force(true);
+        }
     }
 
     /** @return bytes written; valid after the stream is closed */
@@ -139,7 +156,9 @@ final class HashingOutputFile implements OutputFile {
                 closed = true;
                 try (channel) {
                     drain();
-                    channel.force(true);
+                    if (forceOnClose) {
+                        channel.force(true);
+                    }
                 }
                 length = pos;
                 sha256 = HexFormat.of().formatHex(digest.digest());
