@@ -152,7 +152,15 @@ final class ColumnBlockWriter implements Closeable {
     private final ColumnEncoder[] encoders;
     private final java.util.concurrent.ExecutorService pool;
     private final ParquetFileWriter writer;
-    private final Page page;
+    private final Page pageA;
+    private final Page pageB;
+    /** The page being filled by the caller. */
+    private Page page;
+    /** The page being encoded on the page thread, and its row count (page thread only). */
+    private Page encPage;
+    private int encRows;
+    private final java.util.concurrent.ExecutorService sequencer;
+    private java.util.concurrent.Future<Void> inflight;
     private final int pageRows;
     private final List<List<EncodedPage>> pending = new ArrayList<>();
     private final RunLengthBitPackingHybridEncoder levels;
@@ -191,7 +199,9 @@ final class ColumnBlockWriter implements Closeable {
         this.metadata = new java.util.LinkedHashMap<>(metadata);
         this.rowGroupBytes = rowGroupBytes;
         this.codec = codec;
-        this.page = new Page(columns, anyOptional, pageRows);
+        this.pageA = new Page(columns, anyOptional, pageRows);
+        this.pageB = new Page(columns, anyOptional, pageRows);
+        this.page = pageA;
         HeapByteBufferAllocator heap = HeapByteBufferAllocator.getInstance();
         this.levels = new RunLengthBitPackingHybridEncoder(1, 256, Math.max(256, pageRows / 8 + 64), heap);
         this.encoders = new ColumnEncoder[columns.size()];
@@ -202,6 +212,11 @@ final class ColumnBlockWriter implements Closeable {
         // a single encoding thread would otherwise leave a core idle behind the synthesis.
         int threads = Math.min(encoders.length, Runtime.getRuntime().availableProcessors());
         this.fillThreads = Runtime.getRuntime().availableProcessors();
+        this.sequencer = java.util.concurrent.Executors.newSingleThreadExecutor(r -> {
+            Thread t = new Thread(r, "stillfield-pages");
+            t.setDaemon(true);
+            return t;
+        });
         this.pool = threads <= 1 ? null : java.util.concurrent.Executors.newFixedThreadPool(threads, r -> {
             Thread t = new Thread(r, "stillfield-encode");
             t.setDaemon(true);
@@ -268,16 +283,41 @@ final class ColumnBlockWriter implements Closeable {
         return file;
     }
 
+    // The full page goes to the page thread (encoding, then the row group's file writes) while the
+    // caller fills the other page: filling and encoding overlap. One page job at a time keeps the
+    // pages in order and bounds memory to two pages.
     private void flushPage() throws IOException {
         if (fill == 0) {
             return;
         }
-        boolean[] present = page.present();
+        Page full = page;
+        int rows = fill;
+        awaitPageJob();
+        inflight = sequencer.submit(() -> {
+            encPage = full;
+            encRows = rows;
+            encodePage();
+            return null;
+        });
+        page = full == pageA ? pageB : pageA;
+        fill = 0;
+    }
+
+    private void awaitPageJob() throws IOException {
+        java.util.concurrent.Future<Void> f = inflight;
+        inflight = null;
+        if (f != null) {
+            result(f);
+        }
+    }
+
+    private void encodePage() throws IOException {
+        boolean[] present = encPage.present();
         BytesInput dl = null;
-        int presentCount = fill;
+        int presentCount = encRows;
         if (present != null) {
             presentCount = 0;
-            for (int r = 0; r < fill; r++) {
+            for (int r = 0; r < encRows; r++) {
                 presentCount += present[r] ? 1 : 0;
             }
             dl = definitionLevels(present, presentCount);
@@ -304,14 +344,13 @@ final class ColumnBlockWriter implements Closeable {
             pending.get(c).add(pages[c]);
             groupBytes += pages[c].bytes.length;
         }
-        groupRows += fill;
-        fill = 0;
+        groupRows += encRows;
         if (groupBytes >= rowGroupBytes) {
             flushRowGroup();
         }
     }
 
-    private static EncodedPage result(java.util.concurrent.Future<EncodedPage> job) throws IOException {
+    private static <T> T result(java.util.concurrent.Future<T> job) throws IOException {
         try {
             return job.get();
         } catch (InterruptedException ex) {
@@ -336,13 +375,13 @@ final class ColumnBlockWriter implements Closeable {
     // bytes are materialised, so column tasks may read them concurrently.
     private BytesInput definitionLevels(boolean[] present, int presentCount) throws IOException {
         byte[] body;
-        if (presentCount == fill) {
+        if (presentCount == encRows) {
             // One RLE run of 1s: header varint (count << 1), then the value in one byte.
-            BytesInput run = BytesInput.concat(BytesInput.fromUnsignedVarInt(fill << 1), BytesInput.from(new byte[] {1}));
+            BytesInput run = BytesInput.concat(BytesInput.fromUnsignedVarInt(encRows << 1), BytesInput.from(new byte[] {1}));
             body = run.toByteArray();
         } else {
             levels.reset();
-            for (int r = 0; r < fill; r++) {
+            for (int r = 0; r < encRows; r++) {
                 levels.writeInt(present[r] ? 1 : 0);
             }
             body = levels.toBytes().toByteArray();
@@ -356,16 +395,16 @@ final class ColumnBlockWriter implements Closeable {
         DeltaBinaryPackingValuesWriterForLong longs = st.longs;
         DeltaBinaryPackingValuesWriterForInteger ints = st.ints;
         Statistics<?> stats = Statistics.createStats(type);
-        stats.incrementNumNulls(fill - valueCount);
+        stats.incrementNumNulls(encRows - valueCount);
         BytesInput values;
         Encoding enc;
         switch (type.getPrimitiveTypeName()) {
             case INT64: {
-                long[] v = page.int64(c);
+                long[] v = encPage.int64(c);
                 longs.reset();
                 long min = Long.MAX_VALUE;
                 long max = Long.MIN_VALUE;
-                for (int r = 0; r < fill; r++) {
+                for (int r = 0; r < encRows; r++) {
                     if (present == null || present[r]) {
                         longs.writeLong(v[r]);
                         min = Math.min(min, v[r]);
@@ -381,11 +420,11 @@ final class ColumnBlockWriter implements Closeable {
                 break;
             }
             case INT32: {
-                int[] v = page.int32(c);
+                int[] v = encPage.int32(c);
                 ints.reset();
                 int min = Integer.MAX_VALUE;
                 int max = Integer.MIN_VALUE;
-                for (int r = 0; r < fill; r++) {
+                for (int r = 0; r < encRows; r++) {
                     if (present == null || present[r]) {
                         ints.writeInteger(v[r]);
                         min = Math.min(min, v[r]);
@@ -401,12 +440,12 @@ final class ColumnBlockWriter implements Closeable {
                 break;
             }
             case FLOAT: {
-                values = splitFloats(st.scratch, page.float32(c), present, valueCount, stats);
+                values = splitFloats(st.scratch, encPage.float32(c), present, valueCount, stats);
                 enc = Encoding.BYTE_STREAM_SPLIT;
                 break;
             }
             case DOUBLE: {
-                values = splitDoubles(st.scratch, page.float64(c), present, valueCount, stats);
+                values = splitDoubles(st.scratch, encPage.float64(c), present, valueCount, stats);
                 enc = Encoding.BYTE_STREAM_SPLIT;
                 break;
             }
@@ -417,7 +456,7 @@ final class ColumnBlockWriter implements Closeable {
         long raw = body.size();
         byte[] compressed = st.compressor.compress(body).toByteArray();
         boolean hasLevels = optional[c];
-        return new EncodedPage(compressed, Math.toIntExact(raw), fill, fill, stats,
+        return new EncodedPage(compressed, Math.toIntExact(raw), encRows, encRows, stats,
             hasLevels ? Encoding.RLE : Encoding.BIT_PACKED, enc);
     }
 
@@ -426,7 +465,7 @@ final class ColumnBlockWriter implements Closeable {
     private BytesInput splitFloats(byte[] out, float[] v, boolean[] present, int n, Statistics<?> stats) {
         float min = Float.POSITIVE_INFINITY;
         float max = Float.NEGATIVE_INFINITY;
-        if (n == fill) {
+        if (n == encRows) {
             for (int r = 0; r < n; r++) {
                 float x = v[r];
                 int bits = Float.floatToRawIntBits(x);
@@ -439,7 +478,7 @@ final class ColumnBlockWriter implements Closeable {
             }
         } else {
             int i = 0;
-            for (int r = 0; r < fill; r++) {
+            for (int r = 0; r < encRows; r++) {
                 if (present[r]) {
                     float x = v[r];
                     int bits = Float.floatToRawIntBits(x);
@@ -464,7 +503,7 @@ final class ColumnBlockWriter implements Closeable {
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
         int i = 0;
-        for (int r = 0; r < fill; r++) {
+        for (int r = 0; r < encRows; r++) {
             if (present == null || present[r]) {
                 double x = v[r];
                 long bits = Double.doubleToRawLongBits(x);
@@ -515,9 +554,15 @@ final class ColumnBlockWriter implements Closeable {
         closed = true;
         try {
             flushPage();
+            awaitPageJob();
             flushRowGroup();
             writer.end(metadata);
         } catch (IOException | RuntimeException ex) {
+            try {
+                awaitPageJob();
+            } catch (IOException | RuntimeException suppressed) {
+                ex.addSuppressed(suppressed);
+            }
             try {
                 writer.close();
             } catch (IOException | RuntimeException suppressed) {
@@ -525,6 +570,7 @@ final class ColumnBlockWriter implements Closeable {
             }
             throw ex;
         } finally {
+            sequencer.shutdownNow();
             if (pool != null) {
                 pool.shutdownNow();
             }

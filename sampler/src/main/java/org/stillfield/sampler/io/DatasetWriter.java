@@ -882,20 +882,30 @@ public final class DatasetWriter implements EnsembleSink {
                 }
                 // Columns 2.. are the fields' x, y, z components in schema order; values are
                 // interleaved per point (v[3p + i]).
+                // One pass per field over its interleaved values: three strided passes would read
+                // the whole array three times.
                 for (int f = 0; f < values.length; f++) {
                     double[] v = values[f];
-                    for (int i = 0; i < 3; i++) {
-                        int col = 2 + 3 * f + i;
-                        if (float32) {
-                            float[] dst = page.float32(col);
-                            for (int r = 0; r < n; r++) {
-                                dst[at + r] = (float) v[3 * (p0 + r) + i];
-                            }
-                        } else {
-                            double[] dst = page.float64(col);
-                            for (int r = 0; r < n; r++) {
-                                dst[at + r] = v[3 * (p0 + r) + i];
-                            }
+                    int col = 2 + 3 * f;
+                    if (float32) {
+                        float[] x = page.float32(col);
+                        float[] y = page.float32(col + 1);
+                        float[] z = page.float32(col + 2);
+                        for (int r = 0; r < n; r++) {
+                            int b = 3 * (p0 + r);
+                            x[at + r] = (float) v[b];
+                            y[at + r] = (float) v[b + 1];
+                            z[at + r] = (float) v[b + 2];
+                        }
+                    } else {
+                        double[] x = page.float64(col);
+                        double[] y = page.float64(col + 1);
+                        double[] z = page.float64(col + 2);
+                        for (int r = 0; r < n; r++) {
+                            int b = 3 * (p0 + r);
+                            x[at + r] = v[b];
+                            y[at + r] = v[b + 1];
+                            z[at + r] = v[b + 2];
                         }
                     }
                 }
