@@ -357,17 +357,7 @@ final class ColumnBlockWriter implements Closeable {
             Thread.currentThread().interrupt();
             throw new java.io.InterruptedIOException("interrupted while encoding a page");
         } catch (java.util.concurrent.ExecutionException ex) {
-            Throwable c = ex.getCause();
-            if (c instanceof IOException) {
-                throw (IOException) c;
-            }
-            if (c instanceof RuntimeException) {
-                throw (RuntimeException) c;
-            }
-            if (c instanceof Error) {
-                throw (Error) c;
-            }
-            throw new IOException(c);
+            throw Tasks.failure(ex, "page encoding failed");
         }
     }
 
@@ -399,43 +389,38 @@ final class ColumnBlockWriter implements Closeable {
         BytesInput values;
         Encoding enc;
         switch (type.getPrimitiveTypeName()) {
-            case INT64: {
-                long[] v = encPage.int64(c);
-                longs.reset();
+            case INT64:
+            case INT32: {
+                // One loop for both widths: the page array decides which delta writer gets the value.
+                long[] lv = type.getPrimitiveTypeName() == PrimitiveTypeName.INT64 ? encPage.int64(c) : null;
+                int[] iv = lv == null ? encPage.int32(c) : null;
+                if (lv != null) {
+                    longs.reset();
+                } else {
+                    ints.reset();
+                }
                 long min = Long.MAX_VALUE;
                 long max = Long.MIN_VALUE;
                 for (int r = 0; r < encRows; r++) {
                     if (present == null || present[r]) {
-                        longs.writeLong(v[r]);
-                        min = Math.min(min, v[r]);
-                        max = Math.max(max, v[r]);
+                        long x = lv != null ? lv[r] : iv[r];
+                        if (lv != null) {
+                            longs.writeLong(x);
+                        } else {
+                            ints.writeInteger((int) x);
+                        }
+                        min = Math.min(min, x);
+                        max = Math.max(max, x);
                     }
                 }
-                if (valueCount > 0) {
+                if (valueCount > 0 && lv != null) {
                     stats.updateStats(min);
                     stats.updateStats(max);
+                } else if (valueCount > 0) {
+                    stats.updateStats((int) min);
+                    stats.updateStats((int) max);
                 }
-                values = BytesInput.copy(longs.getBytes());
-                enc = Encoding.DELTA_BINARY_PACKED;
-                break;
-            }
-            case INT32: {
-                int[] v = encPage.int32(c);
-                ints.reset();
-                int min = Integer.MAX_VALUE;
-                int max = Integer.MIN_VALUE;
-                for (int r = 0; r < encRows; r++) {
-                    if (present == null || present[r]) {
-                        ints.writeInteger(v[r]);
-                        min = Math.min(min, v[r]);
-                        max = Math.max(max, v[r]);
-                    }
-                }
-                if (valueCount > 0) {
-                    stats.updateStats(min);
-                    stats.updateStats(max);
-                }
-                values = BytesInput.copy(ints.getBytes());
+                values = BytesInput.copy(lv != null ? longs.getBytes() : ints.getBytes());
                 enc = Encoding.DELTA_BINARY_PACKED;
                 break;
             }
@@ -465,38 +450,33 @@ final class ColumnBlockWriter implements Closeable {
     private BytesInput splitFloats(byte[] out, float[] v, boolean[] present, int n, Statistics<?> stats) {
         float min = Float.POSITIVE_INFINITY;
         float max = Float.NEGATIVE_INFINITY;
-        if (n == encRows) {
-            for (int r = 0; r < n; r++) {
+        boolean all = n == encRows;
+        int i = 0;
+        for (int r = 0; r < encRows; r++) {
+            if (all || present[r]) {
                 float x = v[r];
                 int bits = Float.floatToRawIntBits(x);
-                out[r] = (byte) bits;
-                out[n + r] = (byte) (bits >>> 8);
-                out[2 * n + r] = (byte) (bits >>> 16);
-                out[3 * n + r] = (byte) (bits >>> 24);
+                out[i] = (byte) bits;
+                out[n + i] = (byte) (bits >>> 8);
+                out[2 * n + i] = (byte) (bits >>> 16);
+                out[3 * n + i] = (byte) (bits >>> 24);
                 min = x < min ? x : min;
                 max = x > max ? x : max;
-            }
-        } else {
-            int i = 0;
-            for (int r = 0; r < encRows; r++) {
-                if (present[r]) {
-                    float x = v[r];
-                    int bits = Float.floatToRawIntBits(x);
-                    out[i] = (byte) bits;
-                    out[n + i] = (byte) (bits >>> 8);
-                    out[2 * n + i] = (byte) (bits >>> 16);
-                    out[3 * n + i] = (byte) (bits >>> 24);
-                    min = x < min ? x : min;
-                    max = x > max ? x : max;
-                    i++;
-                }
+                i++;
             }
         }
-        if (n > 0) {
+        return finish(stats, n > 0, min, max, out, 4 * n);
+    }
+
+    private static BytesInput finish(Statistics<?> stats, boolean any, double min, double max, byte[] out, int length) {
+        if (any && stats.type().getPrimitiveTypeName() == PrimitiveTypeName.FLOAT) {
+            stats.updateStats((float) min);
+            stats.updateStats((float) max);
+        } else if (any) {
             stats.updateStats(min);
             stats.updateStats(max);
         }
-        return BytesInput.from(out, 0, 4 * n);
+        return BytesInput.from(out, 0, length);
     }
 
     private BytesInput splitDoubles(byte[] scratch, double[] v, boolean[] present, int n, Statistics<?> stats) {
@@ -515,11 +495,7 @@ final class ColumnBlockWriter implements Closeable {
                 i++;
             }
         }
-        if (n > 0) {
-            stats.updateStats(min);
-            stats.updateStats(max);
-        }
-        return BytesInput.from(scratch, 0, 8 * n);
+        return finish(stats, n > 0, min, max, scratch, 8 * n);
     }
 
     private void flushRowGroup() throws IOException {

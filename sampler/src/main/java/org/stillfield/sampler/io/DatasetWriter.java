@@ -983,7 +983,7 @@ public final class DatasetWriter implements EnsembleSink {
         }
     }
 
-    /** Waits for the helper even when interrupted: returning early would let it race with close(). */
+    /** Waits for a writer task even when interrupted: returning early would let it race with close(). */
     private static void await(Future<Void> task) throws IOException {
         boolean interrupted = false;
         try {
@@ -994,17 +994,7 @@ public final class DatasetWriter implements EnsembleSink {
                 } catch (InterruptedException ex) {
                     interrupted = true;
                 } catch (ExecutionException ex) {
-                    Throwable cause = ex.getCause();
-                    if (cause instanceof IOException) {
-                        throw (IOException) cause;
-                    }
-                    if (cause instanceof RuntimeException) {
-                        throw (RuntimeException) cause;
-                    }
-                    if (cause instanceof Error) {
-                        throw (Error) cause;
-                    }
-                    throw new IOException("amplitude writer failed", cause);
+                    throw Tasks.failure(ex, "dataset writer task failed");
                 }
             }
         } finally {
