@@ -23,8 +23,8 @@ import org.apache.parquet.schema.PrimitiveType.PrimitiveTypeName;
 import org.apache.parquet.schema.Type;
 
 /**
- * One Parquet file of a flat table written a page at a time from primitive arrays, for the two
- * tables that grow with the sample count (amplitudes and field values).
+ * One Parquet file of a flat table written a page at a time from primitive arrays: the amplitude
+ * and field tables, which grow with the sample count, and the mode and point tables.
  *
  * <p>Why not the record API: going through a record consumer costs several calls and checks per
  * value plus a growing byte buffer per column and page, which made writing the field table take ten
@@ -33,7 +33,8 @@ import org.apache.parquet.schema.Type;
  * (a row group's column chunks must be contiguous in the file), then handed to
  * {@link ParquetFileWriter}, which writes page headers, column and offset indexes and the footer.
  *
- * <p>Encodings (Parquet format specification, Encodings.md): INT32/INT64 columns
+ * <p>Encodings (Parquet format specification, Encodings.md): BOOLEAN and text columns PLAIN,
+ * INT32/INT64 columns
  * DELTA_BINARY_PACKED (sample, point and mode numbers are runs and steps, which pack to almost
  * nothing), FLOAT/DOUBLE columns BYTE_STREAM_SPLIT (Gaussian noise does not repeat; splitting the
  * bytes lets the codec squeeze the exponent bytes). Every page carries min/max/null-count
@@ -91,6 +92,8 @@ final class ColumnBlockWriter implements Closeable {
                     case INT32: arrays[c] = new int[rows]; break;
                     case FLOAT: arrays[c] = new float[rows]; break;
                     case DOUBLE: arrays[c] = new double[rows]; break;
+                    case BOOLEAN: arrays[c] = new boolean[rows]; break;
+                    case BINARY: arrays[c] = new String[rows]; break;
                     default: throw new IllegalArgumentException("column type not supported by the block writer: " + columns.get(c));
                 }
             }
@@ -111,6 +114,15 @@ final class ColumnBlockWriter implements Closeable {
 
         double[] float64(int column) {
             return (double[]) arrays[column];
+        }
+
+        boolean[] bool(int column) {
+            return (boolean[]) arrays[column];
+        }
+
+        /** @return a UTF-8 text column's values */
+        String[] text(int column) {
+            return (String[]) arrays[column];
         }
 
         /** @return per row: true if the optional columns hold values, false if they are null; null if no column is optional */
@@ -173,7 +185,7 @@ final class ColumnBlockWriter implements Closeable {
 
     /**
      * @param path file to create (must not exist)
-     * @param schema flat schema of INT32, INT64, FLOAT and DOUBLE columns
+     * @param schema flat schema of INT32, INT64, FLOAT, DOUBLE, BOOLEAN and BINARY (UTF-8 text) columns
      * @param metadata footer key-value metadata, written in this order
      * @param rowGroupBytes target compressed size of a row group
      * @param codec page compression
@@ -325,13 +337,14 @@ final class ColumnBlockWriter implements Closeable {
         EncodedPage[] pages = new EncodedPage[columns.size()];
         if (pool == null) {
             for (int c = 0; c < pages.length; c++) {
-                pages[c] = encode(c, optional[c] ? present : null, presentCount, optional[c] ? dl : null);
+                pages[c] = encode(c, optional[c] ? present : null, optional[c] ? presentCount : encRows, optional[c] ? dl : null);
             }
         } else {
             List<java.util.concurrent.Future<EncodedPage>> jobs = new ArrayList<>();
             for (int c = 0; c < pages.length; c++) {
                 int col = c;
-                int valueCount = presentCount;
+                // A required column has a value in every row, whatever the optional ones hold.
+                int valueCount = optional[c] ? presentCount : encRows;
                 BytesInput levelsOfPage = dl;
                 jobs.add(pool.submit(() -> encode(col, optional[col] ? present : null, valueCount,
                     optional[col] ? levelsOfPage : null)));
@@ -424,6 +437,16 @@ final class ColumnBlockWriter implements Closeable {
                 enc = Encoding.DELTA_BINARY_PACKED;
                 break;
             }
+            case BOOLEAN: {
+                values = plainBooleans(encPage.bool(c), present, valueCount, stats);
+                enc = Encoding.PLAIN;
+                break;
+            }
+            case BINARY: {
+                values = plainText(encPage.text(c), present, stats);
+                enc = Encoding.PLAIN;
+                break;
+            }
             case FLOAT: {
                 values = splitFloats(st.scratch, encPage.float32(c), present, valueCount, stats);
                 enc = Encoding.BYTE_STREAM_SPLIT;
@@ -466,6 +489,46 @@ final class ColumnBlockWriter implements Closeable {
             }
         }
         return finish(stats, n > 0, min, max, out, 4 * n);
+    }
+
+    // PLAIN booleans: one bit per present value, least significant bit first.
+    private BytesInput plainBooleans(boolean[] v, boolean[] present, int n, Statistics<?> stats) {
+        byte[] out = new byte[(n + 7) / 8];
+        int i = 0;
+        for (int r = 0; r < encRows; r++) {
+            if (present == null || present[r]) {
+                if (v[r]) {
+                    out[i >>> 3] |= (byte) (1 << (i & 7));
+                }
+                stats.updateStats(v[r]);
+                i++;
+            }
+        }
+        return BytesInput.from(out);
+    }
+
+    // PLAIN byte arrays: each value as a 4-byte little-endian length and its UTF-8 bytes. Text
+    // columns repeat (set names, kinds), so a value equal to the one before reuses its bytes.
+    private BytesInput plainText(String[] v, boolean[] present, Statistics<?> stats) {
+        java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
+        String last = null;
+        byte[] bytes = null;
+        for (int r = 0; r < encRows; r++) {
+            if (present == null || present[r]) {
+                if (!v[r].equals(last)) {
+                    last = v[r];
+                    bytes = last.getBytes(java.nio.charset.StandardCharsets.UTF_8);
+                    stats.updateStats(org.apache.parquet.io.api.Binary.fromConstantByteArray(bytes));
+                }
+                int len = bytes.length;
+                out.write(len);
+                out.write(len >>> 8);
+                out.write(len >>> 16);
+                out.write(len >>> 24);
+                out.write(bytes, 0, len);
+            }
+        }
+        return BytesInput.from(out.toByteArray());
     }
 
     private static BytesInput finish(Statistics<?> stats, boolean any, double min, double max, byte[] out, int length) {
@@ -558,14 +621,4 @@ final class ColumnBlockWriter implements Closeable {
         return schema;
     }
 
-    static boolean supports(MessageType schema) {
-        for (Type t : schema.getFields()) {
-            PrimitiveTypeName p = t.asPrimitiveType().getPrimitiveTypeName();
-            if (p != PrimitiveTypeName.INT32 && p != PrimitiveTypeName.INT64 && p != PrimitiveTypeName.FLOAT
-                && p != PrimitiveTypeName.DOUBLE) {
-                return false;
-            }
-        }
-        return true;
-    }
 }

@@ -561,7 +561,7 @@ public final class DatasetWriter implements EnsembleSink {
 
     @FunctionalInterface
     private interface TableBody {
-        void write(RowWriter w) throws IOException;
+        void write(ColumnBlockWriter w) throws IOException;
     }
 
     /** Writes a run-wide table under a temporary name and links it into place unless another process was first. */
@@ -569,7 +569,9 @@ public final class DatasetWriter implements EnsembleSink {
         Path dest = target.resolve(name);
         Path tmp = temp(dest);
         Layout.Table t = name.equals(Layout.MODES) ? Layout.modes() : Layout.points();
-        try (RowWriter w = new RowWriter(tmp, t.schema(), Layout.footer(common, t), ROW_GROUP_BYTES, codec)) {
+        int rows = name.equals(Layout.MODES) ? modeCount : pointCount;
+        try (ColumnBlockWriter w = new ColumnBlockWriter(tmp, t.schema(), Layout.footer(common, t), ROW_GROUP_BYTES, codec,
+            ColumnBlockWriter.pageRows(rows))) {
             body.write(w);
         } catch (IOException | RuntimeException ex) {
             Files.deleteIfExists(tmp);
@@ -621,60 +623,63 @@ public final class DatasetWriter implements EnsembleSink {
         }
     }
 
-    private void writeModes(RowWriter w) throws IOException {
-        for (int l = 0; l < modeCount; l++) {
-            int index = l;
-            Mode m = table.modes().get(l);
-            w.write(r -> {
-                r.addInt(index);
-                r.addString(m.label());
-                r.addString(m.family());
-                r.addInt(m.i1());
-                r.addInt(m.i2());
-                r.addInt(m.i3());
-                r.addInt(m.orientation());
-                r.addDouble(m.k());
-                r.addDouble(table.omega(index));
-                r.addDouble(table.frequency(index));
-                r.addDouble(table.weight(index));
-                r.addDouble(table.thermalFactor(index));
-                for (Field f : Field.values()) {
-                    r.addDouble(table.vacuumVariance(f, index));
+    private void writeModes(ColumnBlockWriter w) throws IOException {
+        List<Mode> modes = table.modes();
+        Field[] all = Field.values();
+        w.append(modeCount, (first, n, page, at) -> {
+            for (int r = 0; r < n; r++) {
+                int l = (int) first + r;
+                Mode m = modes.get(l);
+                int row = at + r;
+                page.int32(0)[row] = l;
+                page.text(1)[row] = m.label();
+                page.text(2)[row] = m.family();
+                page.int32(3)[row] = m.i1();
+                page.int32(4)[row] = m.i2();
+                page.int32(5)[row] = m.i3();
+                page.int32(6)[row] = m.orientation();
+                page.float64(7)[row] = m.k();
+                page.float64(8)[row] = table.omega(l);
+                page.float64(9)[row] = table.frequency(l);
+                page.float64(10)[row] = table.weight(l);
+                page.float64(11)[row] = table.thermalFactor(l);
+                for (int f = 0; f < all.length; f++) {
+                    page.float64(12 + f)[row] = table.vacuumVariance(all[f], l);
+                    page.float64(12 + all.length + f)[row] = table.variance(all[f], l);
                 }
-                for (Field f : Field.values()) {
-                    r.addDouble(table.variance(f, index));
-                }
-            });
-        }
+            }
+        });
     }
 
-    private void writePoints(RowWriter w) throws IOException {
+    private void writePoints(ColumnBlockWriter w) throws IOException {
         int global = 0;
         for (PointSet set : spec.pointSets()) {
             int[] dims = set.dims();
+            String name = set.name();
             String kind = set.kind().name().toLowerCase(Locale.ROOT);
-            for (int n = 0; n < set.size(); n++) {
-                int p = global++;
-                int idx = n;
-                Vec3 r = set.points().get(n);
-                // Grid index (i, j, k) with x fastest; a line's index is i; a lone point is (0, 0, 0).
-                int i = idx % dims[0];
-                int j = (idx / dims[0]) % dims[1];
-                int k = idx / (dims[0] * dims[1]);
-                w.write(row -> {
-                    row.addInt(p);
-                    row.addString(set.name());
-                    row.addString(kind);
-                    row.addInt(idx);
-                    row.addInt(i);
-                    row.addInt(j);
-                    row.addInt(k);
-                    row.addDouble(r.x());
-                    row.addDouble(r.y());
-                    row.addDouble(r.z());
-                    row.addBoolean(inside[p]);
-                });
-            }
+            List<Vec3> pts = set.points();
+            int base = global;
+            w.append(set.size(), (first, n, page, at) -> {
+                for (int r = 0; r < n; r++) {
+                    int idx = (int) first + r;
+                    int p = base + idx;
+                    int row = at + r;
+                    Vec3 x = pts.get(idx);
+                    page.int32(0)[row] = p;
+                    page.text(1)[row] = name;
+                    page.text(2)[row] = kind;
+                    page.int32(3)[row] = idx;
+                    // Grid index (i, j, k) with x fastest; a line's index is i; a lone point is (0, 0, 0).
+                    page.int32(4)[row] = idx % dims[0];
+                    page.int32(5)[row] = (idx / dims[0]) % dims[1];
+                    page.int32(6)[row] = idx / (dims[0] * dims[1]);
+                    page.float64(7)[row] = x.x();
+                    page.float64(8)[row] = x.y();
+                    page.float64(9)[row] = x.z();
+                    page.bool(10)[row] = inside[p];
+                }
+            });
+            global += set.size();
         }
     }
 

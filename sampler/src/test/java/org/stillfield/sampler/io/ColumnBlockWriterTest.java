@@ -112,6 +112,9 @@ class ColumnBlockWriterTest {
                     if (name.equals("fx")) {
                         nulls += c.getStatistics().getNumNulls();
                     }
+                    if (name.equals("sample") || name.equals("point")) {
+                        assertEquals(0, c.getStatistics().getNumNulls(), "a required column has no nulls: " + name);
+                    }
                     if (name.equals("sample")) {
                         minSample = Math.min(minSample, (Long) c.getStatistics().genericGetMin());
                         maxSample = Math.max(maxSample, (Long) c.getStatistics().genericGetMax());
@@ -148,6 +151,40 @@ class ColumnBlockWriterTest {
         long rows = 3L * ColumnBlockWriter.MAX_PAGE_ROWS + 11;
         Path file = write(CompressionCodecName.SNAPPY, rows, ColumnBlockWriter.MAX_PAGE_ROWS, 64L << 20, (int) rows);
         assertReadsBack(file, rows);
+    }
+
+    @Test
+    void textAndBooleanColumnsReadBack() throws Exception {
+        // Text repeats in runs (as set names do) and changes; booleans cross byte boundaries; the
+        // optional boolean is null where the row's optional values are.
+        MessageType schema = MessageTypeParser.parseMessageType(
+            "message t { required binary name (STRING); required boolean flag; optional boolean maybe; }");
+        Path file = dir.resolve("text.parquet");
+        String[] names = {"grid", "grid", "line \u00e9", "", "p"};
+        long rows = 25_013;
+        try (ColumnBlockWriter w = new ColumnBlockWriter(file, schema, Map.of(), 64L << 20, CompressionCodecName.ZSTD, 20_000)) {
+            w.append(rows, (first, n, page, at) -> {
+                for (int i = 0; i < n; i++) {
+                    long r = first + i;
+                    page.text(0)[at + i] = names[(int) (r / 1000 % names.length)];
+                    page.bool(1)[at + i] = r % 3 == 0;
+                    page.present()[at + i] = r % 5 != 0;
+                    page.bool(2)[at + i] = r % 2 == 0;
+                }
+            });
+        }
+        List<Group> groups = TestRuns.groups(file);
+        assertEquals(rows, groups.size());
+        for (int r = 0; r < rows; r++) {
+            Group g = groups.get(r);
+            assertEquals(names[r / 1000 % names.length], g.getString("name", 0), "name of row " + r);
+            assertEquals(r % 3 == 0, g.getBoolean("flag", 0), "flag of row " + r);
+            if (r % 5 != 0) {
+                assertEquals(r % 2 == 0, g.getBoolean("maybe", 0), "maybe of row " + r);
+            } else {
+                assertEquals(0, g.getFieldRepetitionCount("maybe"), "maybe null in row " + r);
+            }
+        }
     }
 
     @Test
