@@ -17,8 +17,8 @@
  * Every Parquet footer holds the spec text, versions, constants, generator, seed, cavity, window,
  * state, sample count, table name and column units ({@code stillfield.*} keys). Pages are ZSTD
  * compressed unless {@code output.compression} says snappy or none; floating-point columns use
- * BYTE_STREAM_SPLIT encoding, and in the amplitude and field tables (written a page at a time by
- * {@code ColumnBlockWriter}) integer columns use DELTA_BINARY_PACKED.
+ * BYTE_STREAM_SPLIT encoding; the dataset's tables are written a page at a time by
+ * {@code ColumnBlockWriter}, with DELTA_BINARY_PACKED integer columns.
  *
  * <p>Files are read and written without Hadoop's file system or configuration classes: local
  * files, {@code PlainParquetConfiguration} and pure-Java codecs. A plain Parquet reader opening
