@@ -154,7 +154,6 @@ final class ColumnBlockWriter implements Closeable {
     }
 
     private final HashingOutputFile file;
-    private final MessageType schema;
     private final List<PrimitiveType> columns = new ArrayList<>();
     private final List<ColumnDescriptor> descriptors;
     private final boolean[] optional;
@@ -197,7 +196,6 @@ final class ColumnBlockWriter implements Closeable {
             throw new IllegalArgumentException("pageRows " + pageRows + " outside [1, " + MAX_PAGE_ROWS + "]");
         }
         this.pageRows = pageRows;
-        this.schema = schema;
         this.descriptors = schema.getColumns();
         this.optional = new boolean[schema.getFieldCount()];
         boolean anyOptional = false;
@@ -614,11 +612,6 @@ final class ColumnBlockWriter implements Closeable {
                 pool.shutdownNow();
             }
         }
-    }
-
-    /** @return the schema written */
-    MessageType schema() {
-        return schema;
     }
 
 }

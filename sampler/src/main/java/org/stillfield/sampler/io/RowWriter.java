@@ -19,7 +19,8 @@ import org.apache.parquet.schema.Type;
 
 /**
  * One Parquet file written row by row straight into a {@link RecordConsumer}: no record objects,
- * no boxing. A {@link Row} (typically one mutable instance reused for every row) calls the typed
+ * no boxing. Used for the time-series tables; the dataset's tables go through the faster
+ * {@link ColumnBlockWriter}. A {@link Row} (typically one mutable instance reused for every row) calls the typed
  * {@code add} methods in schema order.
  *
  * <p>Encodings: floating-point columns use BYTE_STREAM_SPLIT without dictionary and without
@@ -28,9 +29,6 @@ import org.apache.parquet.schema.Type;
  * to one sample's pages.
  */
 final class RowWriter implements Closeable {
-    /** Page compression unless the spec chooses another. */
-    static final CompressionCodecName CODEC = CompressionCodecName.ZSTD;
-
     private final HashingOutputFile file;
     private final MessageType schema;
     private final ParquetWriter<Row> writer;
@@ -38,16 +36,6 @@ final class RowWriter implements Closeable {
     private int field;
     private long rows;
     private boolean closed;
-
-    /**
-     * @param path file to create (must not exist)
-     * @param schema flat schema
-     * @param metadata footer key-value metadata
-     * @param rowGroupBytes target row-group size, bytes
-     */
-    RowWriter(Path path, MessageType schema, Map<String, String> metadata, long rowGroupBytes) throws IOException {
-        this(path, schema, metadata, rowGroupBytes, CODEC);
-    }
 
     /**
      * @param path file to create (must not exist)
